@@ -1,0 +1,96 @@
+// The chosen transfer H(s) = cᵀ(G + sC)⁻¹b (y = cᵀx, (G + sC)x = b·u): at DC and at any s.
+
+import type { Cx, MnaSystem } from '../types';
+import { luComplex, solveComplex } from '../linalg/lu';
+import { dcBilinear, factorDc, type DcFactor } from './dc';
+import { evalHessenberg, hessenbergForm, type HessenbergForm } from './hessenberg';
+
+export type TransferSys = Pick<MnaSystem, 'n' | 'G' | 'C' | 'b' | 'c'>;
+
+export function isZeroVector(v: Float64Array): boolean {
+  for (let i = 0; i < v.length; i++) if (v[i] !== 0) return false;
+  return true;
+}
+
+export interface DcTransfer {
+  /** cᵀG⁻¹b (or its limit as s → 0); null when undefined or unbounded. */
+  value: number | null;
+  status: 'ok' | 'unbounded' | 'no-input' | 'no-output' | 'singular';
+  reason?: string;
+}
+
+export function dcTransfer(sys: TransferSys, dc: DcFactor = factorDc(sys)): DcTransfer {
+  if (isZeroVector(sys.b)) return { value: null, status: 'no-input', reason: 'no input source chosen' };
+  if (isZeroVector(sys.c)) return { value: null, status: 'no-output', reason: 'no output chosen' };
+  const r = dcBilinear(dc, sys.c, sys.b);
+  if (r.unbounded) return { value: null, status: 'unbounded', reason: 'a pole at s = 0 (ideal integrator) makes the DC gain unbounded' };
+  if (r.value === null) return { value: null, status: 'singular', reason: 'the circuit equations are singular at DC' };
+  return { value: r.value, status: 'ok' };
+}
+
+/** Direct evaluation with one complex LU (reference path; O(n³) per point). */
+export function transferDirect(sys: TransferSys, s: Cx): Cx | null {
+  const { n, G, C, b, c } = sys;
+  const Ar = new Float64Array(n * n);
+  const Ai = new Float64Array(n * n);
+  for (let i = 0; i < n * n; i++) { Ar[i] = G[i] + s.re * C[i]; Ai[i] = s.im * C[i]; }
+  const f = luComplex(Ar, Ai, n);
+  if (f.singularAt >= 0) return null;
+  const [xr, xi] = solveComplex(f, b, new Float64Array(n));
+  let re = 0, im = 0;
+  for (let i = 0; i < n; i++) { re += c[i] * xr[i]; im += c[i] * xi[i]; }
+  return Number.isFinite(re) && Number.isFinite(im) ? { re, im } : null;
+}
+
+export interface TransferEvaluator {
+  /** H(s); null when s is (numerically) a pole. */
+  at(s: Cx): Cx | null;
+  /** H(j·2π·f). */
+  atHz(f: number): Cx | null;
+  method: 'hessenberg' | 'direct';
+}
+
+function frobenius(A: Float64Array): number {
+  let s = 0;
+  for (let i = 0; i < A.length; i++) s += A[i] * A[i];
+  return Math.sqrt(s);
+}
+
+function relErr(a: Cx | null, b: Cx | null): number {
+  if (!a || !b) return Infinity;
+  const d = Math.hypot(a.re - b.re, a.im - b.im);
+  const m = Math.max(Math.hypot(b.re, b.im), 1e-300);
+  return d / m;
+}
+
+/** An evaluator for many s: Hessenberg form when a usable shift is found and it agrees with the
+ *  direct solve at a probe point; the direct solve otherwise. `probeHz` is a typical frequency. */
+export function transferEvaluator(sys: TransferSys, probeHz?: number): TransferEvaluator {
+  const { n, G, C, b, c } = sys;
+  const direct: TransferEvaluator = {
+    at: (s) => transferDirect(sys, s),
+    atHz: (f) => transferDirect(sys, { re: 0, im: 2 * Math.PI * f }),
+    method: 'direct',
+  };
+  const gn = frobenius(G);
+  const cn = frobenius(C);
+  if (n === 0 || cn === 0 || gn === 0) return direct;
+  const w0 = gn / cn;
+  let form: HessenbergForm | null = null;
+  for (const sigma of [0, w0, -0.7 * w0, 3.1 * w0]) {
+    form = hessenbergForm(G, C, b, c, n, sigma);
+    if (form) break;
+  }
+  if (!form) return direct;
+  const h = form;
+  const work = { re: new Float64Array(n * n), im: new Float64Array(n * n) };
+  const fast: TransferEvaluator = {
+    at: (s) => evalHessenberg(h, s, work),
+    atHz: (f) => evalHessenberg(h, { re: 0, im: 2 * Math.PI * f }, work),
+    method: 'hessenberg',
+  };
+  const probe = { re: 0, im: probeHz !== undefined && probeHz > 0 ? 2 * Math.PI * probeHz : w0 };
+  const ref = transferDirect(sys, probe);
+  if (ref && Math.hypot(ref.re, ref.im) > 0 && relErr(fast.at(probe), ref) > 1e-7) return direct;
+  return fast;
+}
