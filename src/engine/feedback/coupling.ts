@@ -1,0 +1,119 @@
+// Directed coupling graph between controlled sources, computed by solving the network.
+//
+// Edge i → j is d_ij(s) = the control of source j produced by source i driving the network with its
+// unit-control excitation (−u_i, see pencil.ts), in the network with EVERY controlled source cut
+// (independent sources zeroed). Cutting all of them, not only j, makes the graph a signal-flow graph
+// of direct couplings (Mason 1953): the controls obey c_j = Σ_i d_ij·c_i, so the product of d along an
+// elementary cycle is exactly that loop's transmission and −∏d its return-ratio-style gain (positive
+// for negative feedback). Had the other sources been left in, each edge would already contain the
+// paths through third sources and cycle products would count them twice.
+import type { MnaSystem } from '../types';
+import { PencilAt, addRankOne, controlIsGround, controlOf, scaledG, sourceStamps, uVector } from './pencil';
+import type { SourceStamp } from './pencil';
+import { scaleStamp } from './returnRatio';
+
+export interface CouplingGraph {
+  stamps: SourceStamp[];
+  /** Frequencies (Hz); index 0 is DC (0). */
+  fHz: number[];
+  /** Per frequency: d_ij at [i*N + j], real and imaginary parts. */
+  re: Float64Array[];
+  im: Float64Array[];
+  /** max over frequency of |d_ij|, [i*N + j]. */
+  peak: Float64Array;
+  /** Per edge (DC, else first frequency where it exists): the output node of i and control node of j
+   *  that carry the coupling (largest response), −1 when none; for drawing a loop's path. */
+  outNode: Int32Array;
+  ctlNode: Int32Array;
+  /** Frequencies (Hz) where the cut network needed a small conductance to ground at every node
+   *  (1e-12 S, common practice) because it was singular there (a node held only by sources). */
+  gminAtHz: number[];
+}
+
+export interface CouplingOptions {
+  freqsHz?: number[];
+  scale?: Record<string, number>;
+}
+
+const GMIN = 1e-12;
+
+export function couplingGraph(sys: MnaSystem, opts: CouplingOptions = {}): CouplingGraph {
+  const n = sys.n;
+  const all = sourceStamps(sys);
+  const scale = opts.scale ?? {};
+  const G = scaledG(sys, all, scale);
+  const stamps = all.map((s) => scaleStamp(s, scale[s.id])).filter((s) => s.value !== 0 && !controlIsGround(s));
+  // the cut network: every (scaled) source removed
+  const Gcut = Float64Array.from(G);
+  for (const s of stamps) addRankOne(Gcut, n, s, -1);
+  const N = stamps.length;
+  const fHz = [0, ...(opts.freqsHz ?? []).filter((f) => f > 0)];
+  const re: Float64Array[] = [];
+  const im: Float64Array[] = [];
+  const peak = new Float64Array(N * N);
+  const outNode = new Int32Array(N * N).fill(-1);
+  const ctlNode = new Int32Array(N * N).fill(-1);
+  const gminAtHz: number[] = [];
+  const us = stamps.map((s) => uVector(s, n).map((x) => -x));
+  for (const f of fHz) {
+    const omega = 2 * Math.PI * f;
+    let pencil = new PencilAt(Gcut, sys.C, n, omega);
+    if (pencil.singular) {
+      const Gm = Float64Array.from(Gcut);
+      for (let k = 0; k < sys.nodeCount; k++) Gm[k * n + k] += GMIN;
+      pencil = new PencilAt(Gm, sys.C, n, omega);
+      gminAtHz.push(f);
+    }
+    const dRe = new Float64Array(N * N);
+    const dIm = new Float64Array(N * N);
+    for (let i = 0; i < N; i++) {
+      const x = pencil.solve(us[i]);
+      for (let j = 0; j < N; j++) {
+        const c = controlOf(stamps[j], x);
+        dRe[i * N + j] = c.re;
+        dIm[i * N + j] = c.im;
+        const mag = Math.hypot(c.re, c.im);
+        if (mag > peak[i * N + j]) peak[i * N + j] = mag;
+        if (outNode[i * N + j] < 0 && mag > 0) {
+          // a pin shared by i's output and j's control is where the signal passes; else the largest
+          const outs = [stamps[i].p, stamps[i].n];
+          const ctls = [stamps[j].cp, stamps[j].cn];
+          const shared = outs.filter((v) => v >= 0 && ctls.includes(v));
+          outNode[i * N + j] = largestOf(shared.length ? shared : outs, x);
+          ctlNode[i * N + j] = shared.length ? outNode[i * N + j] : largestOf(ctls, x);
+        }
+      }
+    }
+    re.push(dRe);
+    im.push(dIm);
+  }
+  return { stamps, fHz, re, im, peak, outNode, ctlNode, gminAtHz };
+}
+
+function largestOf(nodes: number[], x: { re: Float64Array; im: Float64Array }): number {
+  let best = -1;
+  let bestMag = -1;
+  for (const k of nodes) {
+    if (k < 0) continue;
+    const m = Math.hypot(x.re[k], x.im[k]);
+    if (m > bestMag) { bestMag = m; best = k; }
+  }
+  return best;
+}
+
+/** −∏ d along a cycle (vertex list, closing edge last → first) at frequency index fi. */
+export function cycleGain(g: CouplingGraph, cycle: number[], fi: number): { re: number; im: number } {
+  const N = g.stamps.length;
+  let re = -1;
+  let im = 0;
+  for (let k = 0; k < cycle.length; k++) {
+    const a = cycle[k];
+    const b = cycle[(k + 1) % cycle.length];
+    const er = g.re[fi][a * N + b];
+    const ei = g.im[fi][a * N + b];
+    const nr = re * er - im * ei;
+    im = re * ei + im * er;
+    re = nr;
+  }
+  return { re, im };
+}

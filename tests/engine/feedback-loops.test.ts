@@ -1,0 +1,74 @@
+import { describe, it, expect } from 'vitest';
+import { discoverLoops } from '../../src/engine/feedback/loops';
+import { build, R, Cap, Gm, Vsrc, nmos } from './feedback-fixtures';
+
+// Regulated cascode (Razavi, Design of Analog CMOS ICs, regulated cascode; Gray, Hurst, Lewis & Meyer):
+// M1 lower device (gate at AC ground), M2 cascode, error amplifier A1 (macro: transconductance into
+// its output resistance, DC gain A) senses x = M1's drain and drives M2's gate.
+export function regulatedCascode(A: number, load: number | null) {
+  const Ra = 10e3;
+  return build([
+    ...nmos('M1', 'x', '0', '0', 1e-3, 100e3),
+    ...nmos('M2', 'out', 'gx', 'x', 1e-3, 100e3),
+    Gm('A1', '0', 'gx', '0', 'x', A / Ra, 'A0'), R('A1.ro', 'gx', '0', Ra),
+    ...(load === null ? [] : [R('RL', 'out', '0', load)]),
+    Cap('Cx', 'x', '0', 50e-15), Cap('Cg', 'gx', '0', 100e-15), Cap('Co', 'out', '0', 200e-15),
+  ]);
+}
+
+describe('loop discovery', () => {
+  it('source follower: only local loops (Razavi: follower = local feedback through the source)', () => {
+    const sys = build([Vsrc('V1', 'in', '0'), ...nmos('M1', '0', 'in', 'out', 2e-3, 50e3, 4e-4), R('RB', 'out', '0', 20e3)], { input: 'V1' });
+    const d = discoverLoops(sys);
+    expect(d.loops.length).toBeGreaterThan(0);
+    for (const l of d.loops) expect(l.kind).toBe('local');
+    const gmLoop = d.loops.find((l) => l.id === 'M1.gm')!;
+    // self-loop of gm alone (gmb cut in the coupling graph): gm·(ro ∥ RB) — common practice
+    const rpar = 1 / (1 / 50e3 + 1 / 20e3);
+    expect(gmLoop.cycleGainDc.re).toBeCloseTo(2e-3 * rpar, 8);
+    // Bode return ratio of gm with gmb present: gm / (1/ro + 1/RB + gmb) — common practice
+    expect(gmLoop.returnRatioDc.value!.re).toBeCloseTo(2e-3 / (1 / 50e3 + 1 / 20e3 + 4e-4), 8);
+    expect(gmLoop.nets).toEqual(['out']);
+  });
+
+  it('regulated cascode: a global loop A1 → M2 keyed at the amplifier, plus M2 local degeneration', () => {
+    const A = 50;
+    const d = discoverLoops(regulatedCascode(A, 10e6));
+    const global = d.loops.filter((l) => l.kind === 'global');
+    expect(global.length).toBe(1);
+    const g = global[0];
+    expect(g.key).toBe('A1.A0');
+    expect(g.members.map((m) => m.id)).toEqual(['A1.A0', 'M2.gm']);
+    expect(g.nets).toEqual(['gx', 'x']);
+    expect(g.band!.fromHz).toBe(0);
+    // hand nodal analysis of the small-signal model (common practice): with the loop broken at A1,
+    // T = A·gm2 / (gm2 + 1/ro1 + 1/ro2 + RL/(ro1·ro2)); the load RL starves M2, so T ≈ A/2 here.
+    const gm2 = 1e-3, go = 1e-5, RL = 10e6;
+    expect(g.returnRatioDc.value!.re).toBeCloseTo((A * gm2) / (gm2 + 2 * go + RL * go * go), 8);
+    expect(d.loops.some((l) => l.id === 'M2.gm' && l.kind === 'local')).toBe(true);
+    expect(d.truncated).toBe(false);
+    expect(d.groups.some((grp) => grp.includes('A1.A0') && grp.includes('M2.gm'))).toBe(true);
+  });
+
+  it('a loop closed only through a capacitor is active only above a frequency (Miller coupling)', () => {
+    // common-source stage M1 with gate driven from a resistive source and Cgd to its drain: the only
+    // way back from drain to gate is Cgd, so |T| = 0 at DC and grows with frequency (common practice).
+    const sys = build([Vsrc('V1', 'in', '0'), R('RS', 'in', 'g', 10e3), ...nmos('M1', 'd', 'g', '0', 2e-3, 50e3),
+      R('RD', 'd', '0', 10e3), Cap('Cgd', 'g', 'd', 20e-15), Cap('Cgs', 'g', '0', 50e-15)], { input: 'V1' });
+    const d = discoverLoops(sys, { threshold: 0.01 });
+    const m = d.loops.find((l) => l.id === 'M1.gm')!;
+    expect(Math.abs(m.cycleGainDc.re)).toBeLessThan(1e-12);
+    expect(m.band).not.toBeNull();
+    // |T(jω)| ≈ ω·RS·Cgd·gm·(RD∥ro) at low frequency (Miller, common practice): crosses 0.01 near
+    const rd = 1 / (1 / 10e3 + 1 / 50e3);
+    const fCross = 0.01 / (2 * Math.PI * 10e3 * 20e-15 * 2e-3 * rd);
+    expect(m.band!.fromHz).toBeGreaterThan(0.5 * fCross);
+    expect(m.band!.fromHz).toBeLessThan(2 * fCross);
+  });
+
+  it('reports a cut when the cap is smaller than the number of loops', () => {
+    const d = discoverLoops(regulatedCascode(50, 10e6), { cap: 1 });
+    expect(d.loops.length).toBe(1);
+    expect(d.truncated).toBe(true);
+  });
+});
