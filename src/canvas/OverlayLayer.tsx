@@ -1,0 +1,63 @@
+// Overlay: junction dots and drawing errors marked where they occur. Kept as its own layer so the
+// live analysis marks (wire colours by impedance, badges, loops) can join it later without
+// redrawing parts and wires.
+import { memo } from 'react';
+import { Circle, Group, Layer, Line, Rect, Text } from 'react-konva';
+import type { Point } from '../schematic/document';
+import type { DrawingIssue } from '../schematic/drawingChecks';
+import { ERROR, JUNCTION_RADIUS, WARN, WIRE } from './theme';
+import { TEXT_FONT } from './SymbolView';
+
+/** Short words printed beside a mark on the drawing; the full message is in the side panel. */
+export const ISSUE_TAG: Record<DrawingIssue['code'], string> = {
+  'unconnected-pin': 'not connected',
+  'floating-net': 'floating',
+  'outputs-shorted': 'outputs shorted',
+  'no-ground': 'no ground',
+  'bad-value': 'bad value',
+  'duplicate-ref': 'same name twice',
+  'open-wire-end': 'open end',
+  'label-conflict': 'two names',
+  'no-input': 'no input',
+  'no-output': 'no output',
+  'several-inputs': 'several inputs',
+  'several-outputs': 'several outputs',
+};
+
+const IssueMark = memo(function IssueMark({ issue, scale }: { issue: DrawingIssue; scale: number }) {
+  const color = issue.severity === 'error' ? ERROR : WARN;
+  // Marks keep a constant size on screen.
+  const k = 1 / Math.max(scale, 0.3);
+  const r = 5 * k;
+  const tag = ISSUE_TAG[issue.code] ?? issue.code;
+  const font = 10 * k;
+  return (
+    <Group x={issue.x} y={issue.y} listening={false}>
+      <Circle radius={r} stroke={color} strokeWidth={1.6 * k} fill="rgba(255,255,255,0.85)" perfectDrawEnabled={false} />
+      <Line points={[0, -r * 0.5, 0, r * 0.15]} stroke={color} strokeWidth={1.6 * k} lineCap="round" />
+      <Circle y={r * 0.5} radius={0.9 * k} fill={color} />
+      <Rect x={r + 2 * k} y={-font * 0.7} width={tag.length * font * 0.56 + 6 * k} height={font * 1.4} cornerRadius={3 * k} fill="rgba(255,255,255,0.85)" />
+      <Text x={r + 5 * k} y={-font * 0.55} text={tag} fontSize={font} fontFamily={TEXT_FONT} fill={color} />
+    </Group>
+  );
+});
+
+interface Props {
+  junctions: Point[];
+  issues: DrawingIssue[];
+  scale: number;
+  showIssues: boolean;
+}
+
+function OverlayLayerView({ junctions, issues, scale, showIssues }: Props) {
+  return (
+    <Layer listening={false}>
+      {junctions.map((j) => (
+        <Circle key={`${j.x},${j.y}`} x={j.x} y={j.y} radius={JUNCTION_RADIUS} fill={WIRE} perfectDrawEnabled={false} listening={false} />
+      ))}
+      {showIssues && issues.map((iss, i) => <IssueMark key={`${iss.code}:${iss.part ?? iss.wire ?? iss.net ?? ''}:${iss.pin ?? ''}:${i}`} issue={iss} scale={scale} />)}
+    </Layer>
+  );
+}
+
+export const OverlayLayer = memo(OverlayLayerView);
