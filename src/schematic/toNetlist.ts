@@ -1,0 +1,66 @@
+// Drawing → engine netlist (src/engine/types.ts). Part names are the reference designators,
+// node names the net names (ground "0"). The netlist is returned only when the drawing has no
+// error; the issues say what to fix and where.
+
+import type { Netlist, NetlistPart } from '../engine/types';
+import { DEFAULT_PROCESS_NAME } from '../engine/process';
+import type { DrawingDocument } from './document';
+import { DRAWING_FORMAT, pinKey } from './document';
+import { computeConnectivity, GROUND_NET, type NetInfo } from './connectivity';
+import { checkDrawing, type DrawingIssue } from './drawingChecks';
+import { engineValues } from './kinds';
+import { symbolOf } from './symbols';
+
+export interface DrawingNetlist {
+  netlist?: Netlist;
+  issues: DrawingIssue[];
+  /** pinKey(part, pin) → net name. */
+  netOfPin: Record<string, string>;
+  nets: NetInfo[];
+  /** Junction dots of the drawing (three or more conductors meet). */
+  junctions: { x: number; y: number }[];
+}
+
+/** Does a parsed JSON value look like a saved drawing (as opposed to an engine netlist)? */
+export function isDrawing(json: unknown): boolean {
+  return typeof json === 'object' && json !== null && (json as { format?: unknown }).format === DRAWING_FORMAT;
+}
+
+export function documentToNetlist(doc: DrawingDocument): DrawingNetlist {
+  const conn = computeConnectivity(doc);
+  const issues = checkDrawing(doc, conn);
+  const base = { issues, netOfPin: conn.netOfPin, nets: conn.nets, junctions: conn.junctions };
+  if (issues.some((i) => i.severity === 'error')) return base;
+
+  const parts: NetlistPart[] = [];
+  let input: string | undefined;
+  let outputNode: string | undefined;
+  const sorted = Object.values(doc.parts).sort((a, b) => (a.ref < b.ref ? -1 : a.ref > b.ref ? 1 : 0));
+  for (const part of sorted) {
+    const sym = symbolOf(part.kind);
+    const netOf = (pin: string) => conn.netOfPin[pinKey({ part: part.id, pin })];
+    if (sym.role === 'output') {
+      outputNode ??= netOf('p');
+      continue;
+    }
+    if (!sym.engine) continue;
+    const pins: Record<string, string> = {};
+    for (const [symPin, enginePin] of Object.entries(sym.engine.pins)) {
+      const net = netOf(symPin);
+      if (net !== undefined) pins[enginePin] = net;
+    }
+    if (sym.role === 'input') pins.n = GROUND_NET;
+    if ((part.kind === 'nmos' || part.kind === 'pmos') && part.bulk === 'rail') pins.b = GROUND_NET;
+    parts.push({ name: part.ref, kind: sym.engine.kind, pins, values: engineValues(part).values });
+    if (sym.role === 'input' || ((part.kind === 'vsource' || part.kind === 'isource') && part.isInput)) input ??= part.ref;
+  }
+
+  const netlist: Netlist = { format: 'polesketch-netlist', version: 1, parts };
+  if (doc.title) netlist.title = doc.title;
+  if (input) netlist.input = input;
+  if (outputNode !== undefined) netlist.output = { kind: 'voltage', node: outputNode };
+  const needsProcess = sorted.some((p) => (p.kind === 'nmos' || p.kind === 'pmos') && (p.mode ?? 'bias') === 'bias');
+  if (doc.process) netlist.process = doc.process;
+  else if (needsProcess) netlist.process = DEFAULT_PROCESS_NAME;
+  return { ...base, netlist };
+}

@@ -1,0 +1,72 @@
+import { describe, expect, it } from 'vitest';
+import { documentToNetlist, isDrawing } from '../../src/schematic/toNetlist';
+import { loadDrawing, saveDrawing } from '../../src/schematic/file';
+import { drawing, part, pt } from './build';
+
+// A common-source stage: input marker → gate of M1, R1 from the rail to the drain, source on
+// ground, output marker on the drain (labelled "out").
+export function commonSource() {
+  return drawing([
+    part('nmos', 'M1', 100, 100), // g (80,100) d (110,70) s (110,130)
+    part('ground', 'GND1', 110, 130),
+    part('resistor', 'R1', 110, 40, { params: { value: '4.7k' } }), // p (110,10) n (110,70)
+    part('supply', 'VR1', 110, 10),
+    part('input', 'IN1', 40, 100), // p (60,100)
+    part('output', 'OUT1', 150, 70), // p (130,70)
+    part('netLabel', 'NL1', 110, 70, { params: { net: 'out' } }),
+  ], [['g', pt(60, 100), pt(80, 100)], ['o', pt(110, 70), pt(130, 70)]]);
+}
+
+describe('documentToNetlist', () => {
+  it('builds the engine netlist of a common-source stage', () => {
+    const r = documentToNetlist(commonSource());
+    expect(r.issues.filter((i) => i.severity === 'error')).toEqual([]);
+    const n = r.netlist!;
+    expect(n.format).toBe('polesketch-netlist');
+    expect(n.input).toBe('IN1');
+    expect(n.output).toEqual({ kind: 'voltage', node: 'out' });
+    expect(n.process).toBe('demo180-invented'); // bias-mode MOSFET → the built-in demo card
+    expect(n.parts.map((p) => [p.name, p.kind, p.pins])).toEqual([
+      ['IN1', 'vsource', { p: 'n1', n: '0' }],
+      ['M1', 'nmos', { d: 'out', g: 'n1', s: '0' }],
+      ['R1', 'resistor', { p: '0', n: 'out' }], // the rail is AC ground
+    ]);
+    // SI prefixes (SI brochure, 9th ed., Table 7): 4.7k = 4700, 100u = 1e-4, 0.5u = 5e-7
+    expect(n.parts[2].values.value).toBeCloseTo(4700, 9);
+    expect(n.parts[1].values).toMatchObject({ gmid: 12 });
+    expect(n.parts[1].values.id as number).toBeCloseTo(1e-4, 15);
+    expect(n.parts[1].values.l as number).toBeCloseTo(5e-7, 18);
+    expect('vov' in n.parts[1].values).toBe(false);
+  });
+
+  it('maps the bulk: tied to the rail → b = "0"; direct mode passes small-signal values only', () => {
+    const doc = commonSource();
+    doc.parts['part:m1'] = { ...doc.parts['part:m1'], bulk: 'rail', mode: 'direct' };
+    const n = documentToNetlist(doc).netlist!;
+    const m = n.parts.find((p) => p.name === 'M1')!;
+    expect(m.pins.b).toBe('0');
+    expect(Object.keys(m.values).sort()).toEqual(['cdb', 'cgd', 'cgs', 'csb', 'gds', 'gm', 'gmb']);
+    expect(n.process).toBeUndefined();
+  });
+
+  it('refuses to build with a bad value and names the part and field', () => {
+    const doc = commonSource();
+    doc.parts['part:r1'] = { ...doc.parts['part:r1'], params: { value: '4.7q7' } };
+    const r = documentToNetlist(doc);
+    expect(r.netlist).toBeUndefined();
+    const bad = r.issues.find((i) => i.code === 'bad-value')!;
+    expect(bad).toMatchObject({ part: 'part:r1', field: 'value', x: 110, y: 40 });
+    expect(bad.message).toMatch(/R1: Resistance/);
+  });
+
+  it('survives save → open with the same netlist', () => {
+    const doc = commonSource();
+    const text = saveDrawing(doc);
+    expect(isDrawing(JSON.parse(text))).toBe(true);
+    const back = loadDrawing(text);
+    expect(back.ok).toBe(true);
+    if (!back.ok) return;
+    expect(back.doc).toEqual(doc);
+    expect(documentToNetlist(back.doc).netlist).toEqual(documentToNetlist(doc).netlist);
+  });
+});
