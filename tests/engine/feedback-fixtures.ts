@@ -91,3 +91,18 @@ export function build(els: El[], opts: { input?: string; output?: OutputSpec } =
   }
   return { n, nodeCount, nodeNames, branchNames, G, C, b, c, elements, input: opts.input, output: opts.output };
 }
+
+// Regulated cascode (Razavi, Design of Analog CMOS ICs, regulated cascode; Gray, Hurst, Lewis & Meyer):
+// M1 lower device (gate at AC ground), M2 cascode, error amplifier A1 (macro: transconductance into
+// its output resistance, DC gain A) senses x = M1's drain and drives M2's gate.
+export function regulatedCascode(A: number, load: number | null) {
+  const Ra = 10e3;
+  return build([
+    ...nmos('M1', 'x', '0', '0', 1e-3, 100e3),
+    ...nmos('M2', 'out', 'gx', 'x', 1e-3, 100e3),
+    Gm('A1', '0', 'gx', '0', 'x', A / Ra, 'A0'), R('A1.ro', 'gx', '0', Ra),
+    ...(load === null ? [] : [R('RL', 'out', '0', load)]),
+    Cap('Cx', 'x', '0', 50e-15), Cap('Cg', 'gx', '0', 100e-15), Cap('Co', 'out', '0', 200e-15),
+  ]);
+}
+

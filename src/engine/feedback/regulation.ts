@@ -1,0 +1,86 @@
+// What a loop regulates, read from Blackman's factors (blackman.ts): the loop holds the voltage of
+// the node whose impedance it divides most and the current into the node whose impedance it
+// multiplies most. Linear small-signal estimate at one frequency (DC when the loop is active there,
+// else where its gain peaks).
+import type { MnaSystem } from '../types';
+import { blackmanAt } from './blackman';
+import type { BlackmanNode } from './blackman';
+import type { Loop } from './loops';
+import { cabs } from './cx';
+import { sourceStamps, nodeLabel } from './pencil';
+
+/** A factor must pass this (×1.5 or ÷1.5) before the loop is said to hold anything there. */
+export const SIGNIFICANT_FACTOR = 1.5;
+const TIE = 1.05;
+
+export interface HeldQuantity {
+  node: string;
+  /** |Z|/|Z⁰| at that node. */
+  factor: number;
+  /** Words, e.g. "holds V(x) — impedance ÷ 48". */
+  text: string;
+}
+
+export interface Regulation {
+  loopId: string;
+  key: string;
+  atHz: number;
+  status: 'ok' | 'unknown-source' | 'singular';
+  message?: string;
+  holdsVoltage: HeldQuantity | null;
+  holdsCurrent: HeldQuantity | null;
+  nodes: BlackmanNode[];
+  /** Plain summary, with the linear small-signal caveat. */
+  summary: string;
+}
+
+export function loopRegulation(sys: MnaSystem, loop: Loop, opts: { scale?: Record<string, number>; fHz?: number } = {}): Regulation {
+  const atHz = opts.fHz ?? (loop.band && loop.band.fromHz > 0 ? loop.peakAtHz : 0);
+  return regulationOf(sys, loop.key, { ...opts, fHz: atHz, loopId: loop.id, preferNets: loop.nets });
+}
+
+export function regulationOf(
+  sys: MnaSystem, key: string,
+  opts: { scale?: Record<string, number>; fHz?: number; loopId?: string; preferNets?: string[] } = {},
+): Regulation {
+  const atHz = opts.fHz ?? 0;
+  const b = blackmanAt(sys, key, { fHz: atHz, scale: opts.scale });
+  const base = { loopId: opts.loopId ?? key, key, atHz, status: b.status, message: b.message, nodes: b.nodes };
+  if (b.status !== 'ok') return { ...base, holdsVoltage: null, holdsCurrent: null, summary: b.message ?? '' };
+  const stamp = sourceStamps(sys).find((s) => s.id === key)!;
+  const sensed = [stamp.cp, stamp.cn].filter((v) => v >= 0).map((v) => nodeLabel(sys, v));
+  const rank = (name: string) => (sensed.includes(name) ? 0 : opts.preferNets?.includes(name) ? 1 : 2);
+  const usable = b.nodes.filter((x) => x.status === 'ok' && Number.isFinite(cabs(x.factor)) && cabs(x.factor) > 0);
+  let holdsVoltage: HeldQuantity | null = null;
+  let holdsCurrent: HeldQuantity | null = null;
+  if (usable.length) {
+    const mags = usable.map((x) => cabs(x.factor));
+    const lo = Math.min(...mags);
+    const hi = Math.max(...mags);
+    if (lo < 1 / SIGNIFICANT_FACTOR) {
+      // among near-equal divisions (every node on a shunt loop is divided alike), the sensed node
+      const pick = usable.filter((_, i) => mags[i] <= lo * TIE).sort((p, q) => rank(p.node) - rank(q.node) || cabs(p.factor) - cabs(q.factor))[0];
+      const f = cabs(pick.factor);
+      holdsVoltage = { node: pick.node, factor: f, text: `holds V(${pick.node}) — impedance ÷ ${fmt(1 / f)}` };
+    }
+    if (hi > SIGNIFICANT_FACTOR) {
+      const pick = usable.filter((_, i) => mags[i] >= hi / TIE).sort((p, q) => cabs(q.factor) - cabs(p.factor))[0];
+      const f = cabs(pick.factor);
+      holdsCurrent = { node: pick.node, factor: f, text: `holds the current into ${pick.node} — impedance × ${fmt(f)}` };
+    }
+  }
+  const parts = [holdsVoltage?.text, holdsCurrent?.text].filter(Boolean);
+  const where = atHz > 0 ? ` at ${fmt(atHz)} Hz` : ' at DC';
+  const summary = parts.length
+    ? `${key}: ${parts.join('; ')}${where} (linear small-signal estimate)`
+    : `${key}: changes no node impedance by more than ×/÷ ${SIGNIFICANT_FACTOR}${where} (linear small-signal estimate)`;
+  return { ...base, holdsVoltage, holdsCurrent, summary };
+}
+
+/** Three significant digits, SI-free (factors and Hz). */
+export function fmt(x: number): string {
+  if (!Number.isFinite(x)) return String(x);
+  const a = Math.abs(x);
+  if (a >= 1e4 || (a > 0 && a < 1e-2)) return x.toExponential(2);
+  return String(Number(x.toPrecision(3)));
+}
