@@ -1,0 +1,170 @@
+// What the editor needs from the browser: file download and pick, the system clipboard with a
+// localStorage copy (so two tabs of the app can copy and paste between each other; the other tab
+// learns of it from the storage event), and autosave with restore after a reload.
+import { useCallback, useEffect, useRef, useState, type ChangeEvent, type RefObject } from 'react';
+import type { Editor } from '../editor/types';
+import { emptyDocument, type DrawingDocument } from '../schematic/document';
+import { autosave, loadDrawing, restoreAutosave, saveDrawing } from '../schematic/file';
+
+export const CLIPBOARD_KEY = 'polesketch.clipboard';
+const AUTOSAVE_DELAY_MS = 400;
+
+export interface Banner {
+  kind: 'error' | 'info';
+  text: string;
+}
+
+interface Options {
+  editor: Editor;
+  storage: Storage | null;
+  examples: { id: string; title: string; load: () => DrawingDocument }[];
+  setBanner: (b: Banner | null) => void;
+  onSaved: (doc: DrawingDocument) => void;
+}
+
+export interface BrowserHost {
+  fileInput: RefObject<HTMLInputElement | null>;
+  onFilePicked: (e: ChangeEvent<HTMLInputElement>) => void;
+  openFileObject: (file: File) => void;
+  openText: (text: string, name: string) => void;
+  newDrawing: () => void;
+  openExample: (id: string) => void;
+  flash: string | null;
+}
+
+export function fileNameFor(doc: DrawingDocument): string {
+  const base = (doc.title ?? '').trim().replace(/[^A-Za-z0-9._-]+/g, '-').replace(/^-+|-+$/g, '');
+  return `${base || 'drawing'}.json`;
+}
+
+function download(name: string, text: string): void {
+  const url = URL.createObjectURL(new Blob([text], { type: 'application/json' }));
+  const a = document.createElement('a');
+  a.href = url;
+  a.download = name;
+  document.body.appendChild(a);
+  a.click();
+  a.remove();
+  setTimeout(() => URL.revokeObjectURL(url), 0);
+}
+
+export function useBrowserHost({ editor, storage, examples, setBanner, onSaved }: Options): BrowserHost {
+  const fileInput = useRef<HTMLInputElement | null>(null);
+  const [flash, setFlash] = useState<string | null>(null);
+  const flashTimer = useRef<ReturnType<typeof setTimeout> | null>(null);
+  const say = useCallback((text: string) => {
+    setFlash(text);
+    if (flashTimer.current) clearTimeout(flashTimer.current);
+    flashTimer.current = setTimeout(() => setFlash(null), 6000);
+  }, []);
+
+  const openText = useCallback((text: string, name: string) => {
+    const r = loadDrawing(text);
+    if (!r.ok) {
+      setBanner({ kind: 'error', text: `${name} was not opened: ${r.reason} Your current drawing is unchanged.` });
+      return;
+    }
+    editor.load(r.doc, { label: `Open ${name}` });
+    onSaved(editor.document);
+    setBanner(r.migratedFrom !== undefined ? { kind: 'info', text: `${name} was saved by an older version (format ${r.migratedFrom}) and has been brought up to date.` } : null);
+    say(`Opened ${name}.`);
+    editor.dispatch({ type: 'command', id: 'view.fit' });
+  }, [editor, onSaved, say, setBanner]);
+
+  const openFileObject = useCallback((file: File) => {
+    file.text().then((t) => openText(t, file.name), (e: Error) => setBanner({ kind: 'error', text: `${file.name} could not be read: ${e.message}` }));
+  }, [openText, setBanner]);
+
+  useEffect(() => {
+    editor.setHost({
+      saveFile: (doc) => {
+        try {
+          download(fileNameFor(doc), saveDrawing(doc));
+          onSaved(doc);
+          say(`Saved as ${fileNameFor(doc)}.`);
+        } catch (e) {
+          setBanner({ kind: 'error', text: `Saving failed: ${(e as Error).message}` });
+        }
+      },
+      openFile: () => fileInput.current?.click(),
+      writeClipboard: (text) => {
+        try { storage?.setItem(CLIPBOARD_KEY, text); } catch { /* storage full or off: system clipboard only */ }
+        navigator.clipboard?.writeText(text).catch(() => undefined);
+      },
+      requestPaste: () => {
+        const fromStorage = () => {
+          const t = storage?.getItem(CLIPBOARD_KEY);
+          if (t) editor.dispatch({ type: 'paste', text: t });
+          else say('Nothing to paste: copy parts first (here or in another tab of the app).');
+        };
+        const read = navigator.clipboard?.readText?.bind(navigator.clipboard);
+        if (!read) { fromStorage(); return; }
+        read().then((t) => {
+          if (t && t.includes('polesketch')) editor.dispatch({ type: 'paste', text: t });
+          else fromStorage();
+        }, fromStorage);
+      },
+    });
+  }, [editor, storage, onSaved, say, setBanner]);
+
+  // Another tab copied parts.
+  useEffect(() => {
+    const onStorage = (e: StorageEvent) => {
+      if (e.key === CLIPBOARD_KEY && e.newValue) say('Parts copied in another tab are ready to paste.');
+    };
+    window.addEventListener('storage', onStorage);
+    return () => window.removeEventListener('storage', onStorage);
+  }, [say]);
+
+  // Restore the autosaved drawing once; else open the first example.
+  const restored = useRef(false);
+  useEffect(() => {
+    if (restored.current) return;
+    restored.current = true;
+    if (!storage) return;
+    const r = restoreAutosave(storage);
+    if (r && r.ok) {
+      editor.load(r.doc, { record: false });
+      onSaved(editor.document);
+      say('Restored the drawing from your last session.');
+    } else {
+      if (r && !r.ok) setBanner({ kind: 'error', text: `The autosaved drawing could not be restored: ${r.reason}` });
+      if (examples[0]) { editor.load(examples[0].load(), { record: false }); onSaved(editor.document); }
+    }
+    editor.dispatch({ type: 'command', id: 'view.fit' });
+  }, [editor, storage, examples, onSaved, say, setBanner]);
+
+  // Autosave shortly after each change.
+  const doc = editor.document;
+  useEffect(() => {
+    if (!storage) return;
+    const t = setTimeout(() => {
+      const r = autosave(storage, doc);
+      if (!r.ok) say(r.reason);
+    }, AUTOSAVE_DELAY_MS);
+    return () => clearTimeout(t);
+  }, [doc, storage, say]);
+
+  return {
+    fileInput,
+    onFilePicked: (e) => {
+      const f = e.target.files?.[0];
+      e.target.value = '';
+      if (f) openFileObject(f);
+    },
+    openFileObject,
+    openText,
+    newDrawing: () => {
+      editor.load(emptyDocument(), { label: 'New drawing' });
+      setBanner(null);
+    },
+    openExample: (id) => {
+      const ex = examples.find((x) => x.id === id);
+      if (!ex) return;
+      editor.load(ex.load(), { label: `Open example ${ex.title}` });
+      onSaved(editor.document);
+      editor.dispatch({ type: 'command', id: 'view.fit' });
+    },
+    flash,
+  };
+}
