@@ -166,7 +166,10 @@ function loopNets(sys: MnaSystem, g: CouplingGraph, ordered: number[]): string[]
     }
   }
   if (seq.length > 1 && seq[0] === seq[seq.length - 1]) seq.pop();
-  return seq.map((v) => nodeLabel(sys, v));
+  const names = seq.map((v) => nodeLabel(sys, v));
+  // nodes private to a part macro ("<part>#<label>") cannot be drawn; keep them only if nothing else
+  const visible = names.filter((x) => !x.includes('#'));
+  return visible.length ? visible : names;
 }
 
 /** Envelope of the frequencies where mags > threshold, edges interpolated in log f / log |g|. */
