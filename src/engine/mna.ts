@@ -47,6 +47,9 @@ function partPins(p: NetlistPart): [string, string][] {
 /** Parse values and apply each part's stamp. Parts with errors are left out and their issues kept. */
 export function expandNetlist(netlist: Netlist): ExpandedNetlist {
   const { issues } = validateNetlist(netlist);
+  if (typeof netlist !== 'object' || netlist === null) {
+    return { nodeNames: [], branchNames: [], elements: [], issues, pinUses: [] };
+  }
   const nodeNames: string[] = [];
   const nodeIndex = new Map<string, number>();
   const branchNames: string[] = [];

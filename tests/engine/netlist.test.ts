@@ -131,3 +131,25 @@ describe('validateNetlist', () => {
     expect(validateNetlist(net([], { process: 'demo180-invented' })).issues).toEqual([]);
   });
 });
+
+describe('malformed input never throws (engine rule: a status, not an exception)', () => {
+  it('validateNetlist and buildMna return issues for junk', async () => {
+    const { buildMna } = await import('../../src/engine/mna');
+    const junk: unknown[] = [
+      undefined, 42, 'x', [], { format: 'polesketch-netlist', version: 1, parts: [null, 1, {}] },
+      net([{ name: 'R1', kind: 'resistor', pins: 5, values: 'no' }]),
+      net([{ name: 'R1', kind: 'resistor', pins: { p: 1, n: null }, values: { value: {} } }]),
+      net([{ name: 'M1', kind: 'nmos', pins: { d: 'd', g: 'g', s: 's', b: '' }, values: { gm: 'abc', w: -1 } }]),
+      net([R('R1', 'a', '0', '1k')], { input: 7, output: 'out', process: 3 }),
+      net([R('R1', 'a', '0', '1k')], { output: { kind: 'voltage' } }),
+    ];
+    for (const j of junk) {
+      const v = validateNetlist(j);
+      expect(v.netlist).toBeUndefined();
+      expect(errors(v.issues).length).toBeGreaterThan(0);
+      const b = buildMna(j as never);
+      expect(b.system).toBeUndefined();
+      expect(errors(b.issues).length).toBeGreaterThan(0);
+    }
+  });
+});
