@@ -88,7 +88,10 @@ function checkPins(part: NetlistPart): EngineIssue[] {
       out.push(issue('error', 'missing-pin', `${part.name}.${pin}: must name a node, or be left out`, { part: part.name, field: `pins.${pin}` }));
     }
   }
-  for (const pin of Object.keys(pins)) {
+  for (const [pin, node] of Object.entries(pins)) {
+    if (typeof node === 'string' && node.includes('#')) {
+      out.push(issue('error', 'bad-value', `${part.name}.${pin}: node name "${node}" may not contain "#" (kept for nodes inside a part)`, { part: part.name, field: `pins.${pin}` }));
+    }
     if (fam.spec.pins.includes(pin) || fam.spec.optionalPins?.includes(pin)) continue;
     out.push(issue('warning', 'bad-value', `${part.name}.${pin}: a ${part.kind} has no pin "${pin}"; ignored`, { part: part.name, field: `pins.${pin}` }));
   }

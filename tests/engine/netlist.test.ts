@@ -85,6 +85,11 @@ describe('validateNetlist', () => {
     expect(errors(e.issues)).toEqual([]);
   });
 
+  it('keeps "#" for internal nodes of a part (e.g. A1#1)', () => {
+    const r = validateNetlist(net([R('R1', 'A1#1', '0', '1k')]));
+    expect(errors(r.issues)).toEqual([expect.objectContaining({ part: 'R1', field: 'pins.p' })]);
+  });
+
   it('treats "0" and "gnd" as the same ground node', () => {
     expect(isGroundName('0')).toBe(true);
     expect(isGroundName('gnd')).toBe(true);
