@@ -89,6 +89,14 @@ describe('checkStructure', () => {
     expect(buildMna(n).system).toBeUndefined();
   });
 
+  it('numeric check names a branch part: a unity vcvs whose output drives its own control', () => {
+    // v(a) − 1·v(a) = 0 leaves the branch row empty for every s (Vlach & Singhal: degenerate MNA row).
+    const n = net([part('E1', 'vcvs', { p: 'a', n: '0', cp: 'a', cn: '0' }, { gain: 1 }), R('R1', 'a', '0')]);
+    expect(errors(check(n))).toEqual([expect.objectContaining({ code: 'singular', part: 'E1' })]);
+    const ok = net([part('E1', 'vcvs', { p: 'a', n: '0', cp: 'a', cn: '0' }, { gain: 2 }), R('R1', 'a', '0')]);
+    expect(errors(check(ok))).toEqual([]);
+  });
+
   it('numeric check accepts stiff but sound circuits (wide value spread, amplifier internal nodes)', () => {
     const n = net([
       V('V1', 'in', '0'),
