@@ -69,6 +69,8 @@ export interface SymbolParam {
   text?: boolean;
   /** One of a set of alternatives: exactly one parameter of the group should be given. */
   oneOf?: string;
+  /** Short help text shown with the field (e.g. what a blank value means). */
+  hint?: string;
 }
 
 export type SymbolRole = 'device' | 'ground' | 'supply' | 'netLabel' | 'input' | 'output';

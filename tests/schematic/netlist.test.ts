@@ -37,6 +37,7 @@ describe('documentToNetlist', () => {
     expect(n.parts[1].values.id as number).toBeCloseTo(1e-4, 15);
     expect(n.parts[1].values.l as number).toBeCloseTo(5e-7, 18);
     expect('vov' in n.parts[1].values).toBe(false);
+    expect('gm' in n.parts[1].values).toBe(false); // direct-mode field left out in bias mode
   });
 
   it('maps the bulk: tied to the rail → b = "0"; direct mode passes small-signal values only', () => {
@@ -45,7 +46,7 @@ describe('documentToNetlist', () => {
     const n = documentToNetlist(doc).netlist!;
     const m = n.parts.find((p) => p.name === 'M1')!;
     expect(m.pins.b).toBe('0');
-    expect(Object.keys(m.values).sort()).toEqual(['cdb', 'cgd', 'cgs', 'csb', 'gds', 'gm', 'gmb']);
+    expect(Object.keys(m.values).sort()).toEqual(['gds', 'gm', 'gmb']);
     expect(n.process).toBeUndefined();
   });
 
@@ -68,5 +69,16 @@ describe('documentToNetlist', () => {
     if (!back.ok) return;
     expect(back.doc).toEqual(doc);
     expect(documentToNetlist(back.doc).netlist).toEqual(documentToNetlist(doc).netlist);
+  });
+});
+
+describe('capacitance overrides', () => {
+  it('passes a typed Cgd in bias mode as an override of the derived value', () => {
+    const doc = commonSource();
+    const m1 = doc.parts['part:m1'];
+    doc.parts['part:m1'] = { ...m1, params: { ...m1.params, cgd: '25f' } };
+    const m = documentToNetlist(doc).netlist!.parts.find((p) => p.name === 'M1')!;
+    expect(m.values.cgd as number).toBeCloseTo(25e-15, 25); // f = 1e-15 (SI brochure, Table 7)
+    expect('cgs' in m.values).toBe(false);
   });
 });
