@@ -107,10 +107,12 @@ export function findCrossing(ev: TransferEvaluator, sw: Sweep, levelDb: number):
   }
   const first = magDb.find((m) => m !== null);
   if (first === undefined) return { hz: null, phaseDeg: null, reason: 'no usable points in the sweep' };
-  if (!anyAbove && (magDb[magDb.length - 1] ?? -Infinity) < levelDb) {
-    return { hz: null, phaseDeg: null, reason: 'the gain stays below the level over the whole sweep' };
-  }
-  return { hz: null, phaseDeg: null, reason: 'the gain does not fall through the level within the sweep' };
+  const what = levelDb === 0 ? '0 dB (|H| = 1)' : `${levelDb.toFixed(2)} dB`;
+  const top = hz[hz.length - 1];
+  if (!anyAbove) return { hz: null, phaseDeg: null, reason: `|H| stays below ${what} over the whole sweep` };
+  const last = magDb[magDb.length - 1];
+  if (last !== null && last >= levelDb) return { hz: null, phaseDeg: null, reason: `|H| is still above ${what} at the top of the sweep (${top.toPrecision(3)} Hz)` };
+  return { hz: null, phaseDeg: null, reason: `|H| does not fall through ${what} within the sweep` };
 }
 
 /** −3 dB bandwidth relative to the DC gain magnitude. */

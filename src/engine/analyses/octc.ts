@@ -99,8 +99,10 @@ export function nodeTimeConstants(sys: OctcSys, zDc: DcImpedance[]): NodeTimeCon
       tau = Math.abs(z.ohms) * farads;
       poleHz = tau > 0 ? 1 / (2 * Math.PI * tau) : null;
     }
+    // Nodes private to a part macro ("<part>#<label>") model that part's own poles; they are
+    // listed but not chosen as the slowest node of the drawing.
     const key = z.openAtDc && farads > 0 ? Infinity : (tau ?? -1);
-    if (key > slowestTau) { slowestTau = key; slowest = k; }
+    if (!sys.nodeNames[k].includes('#') && key > slowestTau) { slowestTau = key; slowest = k; }
     rows.push({ node: sys.nodeNames[k], farads, ohms: z.ohms, tau, poleHz, slowest: false });
   }
   if (slowest >= 0 && slowestTau > 0) rows[slowest].slowest = true;

@@ -1,0 +1,78 @@
+// Benchmark of the full small-signal analysis (analyze(): validation, structure, poles, zeros,
+// DC/sweep transfer, node impedances, OCTC, participation) on invented n-unknown amplifier chains,
+// plus the pieces on their own for the 60-unknown case (poles, zeros, node impedances at 100
+// frequencies). Prints times and ratios; asserts nothing (no test may assert wall-clock time).
+import { analyze, buildMna, logGrid, type Netlist } from '../../src/engine/index';
+import { computePoles } from '../../src/engine/analyses/poles';
+import { computeZeros } from '../../src/engine/analyses/zeros';
+import { impedancesAtHz } from '../../src/engine/analyses/impedance';
+
+/** A chain of `stages` CS gain stages (direct small-signal values) with Miller and coupling caps
+ *  and an overall resistive feedback: unknowns = stages + 1 nodes + 1 source branch. */
+export function chainNetlist(stages: number): Netlist {
+  const parts: Netlist['parts'] = [
+    { name: 'Vin', kind: 'vsource', pins: { p: 'in', n: '0' }, values: {} },
+    { name: 'Rin', kind: 'resistor', pins: { p: 'in', n: 'n0' }, values: { value: '10k' } },
+  ];
+  for (let k = 0; k < stages; k++) {
+    const g = `n${k}`, d = `n${k + 1}`;
+    parts.push(
+      { name: `M${k}`, kind: 'nmos', pins: { d, g, s: '0' }, values: { gm: `${1 + (k % 5) * 0.3}m`, gds: '20u', cgs: `${100 + 7 * k}f`, cgd: '15f', cdb: '30f' } },
+      { name: `R${k}`, kind: 'resistor', pins: { p: d, n: '0' }, values: { value: `${5 + (k % 3)}k` } },
+    );
+    if (k >= 2) parts.push({ name: `Cx${k}`, kind: 'capacitor', pins: { p: d, n: `n${k - 2}` }, values: { value: '3f' } });
+  }
+  parts.push({ name: 'Rfb', kind: 'resistor', pins: { p: `n${stages}`, n: 'n0' }, values: { value: '1M' } });
+  return { format: 'polesketch-netlist', version: 1, parts, input: 'Vin', output: { kind: 'voltage', node: `n${stages}` } };
+}
+
+function median(xs: number[]): number {
+  const s = [...xs].sort((a, b) => a - b);
+  return s[Math.floor(s.length / 2)];
+}
+
+function time(fn: () => unknown, minRuns = 5, minMs = 200): number {
+  fn(); // warm-up
+  const ts: number[] = [];
+  const t0 = performance.now();
+  while (ts.length < minRuns || performance.now() - t0 < minMs) {
+    const a = performance.now();
+    fn();
+    ts.push(performance.now() - a);
+    if (ts.length > 500) break;
+  }
+  return median(ts);
+}
+
+export interface AnalysisBenchRow { unknowns: number; ms: number; ratioToFirst: number; ratioToCubic: number }
+
+export function runAnalysisBench(print: (s: string) => void = console.log): AnalysisBenchRow[] {
+  const rows: AnalysisBenchRow[] = [];
+  print('full analysis (analyze) on invented amplifier chains — median ms per call');
+  for (const n of [10, 20, 40, 60, 100, 150, 200]) {
+    const net = chainNetlist(n - 2);
+    const ms = time(() => analyze(net));
+    const first = rows[0];
+    const row = {
+      unknowns: n,
+      ms,
+      ratioToFirst: first ? ms / first.ms : 1,
+      ratioToCubic: first ? ms / first.ms / Math.pow(n / first.unknowns, 3) : 1,
+    };
+    rows.push(row);
+    print(`  n = ${String(n).padStart(3)}: ${ms.toFixed(2).padStart(8)} ms   ×${row.ratioToFirst.toFixed(1)} of n=10, ${row.ratioToCubic.toFixed(2)} of cubic scaling`);
+  }
+  const sys = buildMna(chainNetlist(58)).system!;
+  const poles = time(() => computePoles(sys));
+  const p = computePoles(sys).poles;
+  const zeros = time(() => computeZeros(sys, p));
+  const grid = logGrid(1e3, 1e12, 11).slice(0, 100);
+  const imp = time(() => { for (const f of grid) impedancesAtHz(sys, f); }, 3);
+  const full = rows.find((r) => r.unknowns === 60)!.ms;
+  print(`60 unknowns: poles ${poles.toFixed(2)} ms, zeros ${zeros.toFixed(2)} ms, all node impedances at ${grid.length} frequencies ${imp.toFixed(2)} ms`);
+  print(`60 unknowns: (poles + zeros + impedances at 100 f) / 16 ms budget = ${((poles + zeros + imp) / 16).toFixed(2)}; full analyze / 16 ms = ${(full / 16).toFixed(2)}`);
+  return rows;
+}
+
+const invokedDirectly = typeof process !== 'undefined' && /analysis-bench\.[cm]?[tj]s$/.test(process.argv[1] ?? '');
+if (invokedDirectly) runAnalysisBench();

@@ -1,0 +1,133 @@
+import { describe, it, expect } from 'vitest';
+import { readFileSync, readdirSync } from 'node:fs';
+import { analyze, type Netlist } from '../../src/engine/index';
+
+const dir = 'src/examples/netlists';
+const load = (f: string) => JSON.parse(readFileSync(`${dir}/${f}`, 'utf8')) as Netlist;
+
+// Demo process card numbers (src/engine/process.ts) and the square-law relations of the MOS stamp
+// (gm = gmid·Id, gds = (λL/L)·Id, gmb = η·gm; Razavi, Design of Analog CMOS ICs, ch. 2).
+const N = { lambdaL: 0.09e-6, eta: 0.21 };
+
+function hasNonFinite(v: unknown): boolean {
+  if (typeof v === 'number') return !Number.isFinite(v);
+  if (Array.isArray(v)) return v.some(hasNonFinite);
+  if (v && typeof v === 'object') return Object.values(v).some(hasNonFinite);
+  return false;
+}
+
+describe('analyze() on the examples', () => {
+  for (const f of readdirSync(dir).filter((x) => x.endsWith('.json'))) {
+    it(`${f}: computes without errors, no NaN or Infinity anywhere`, () => {
+      const r = analyze(load(f));
+      expect(r.issues.filter((i) => i.severity === 'error')).toEqual([]);
+      expect(r.ok).toBe(true);
+      expect(r.poles.length).toBeGreaterThan(0);
+      expect(r.nodes.length).toBe(r.unknowns.nodes);
+      expect(hasNonFinite(r)).toBe(false);
+      expect(r.caution).toMatch(/small-signal/);
+      expect(r.participation.length).toBe(r.poles.length);
+    });
+  }
+
+  it('cascode current source: DC transfer (test current → v(out)) is ro1 + ro2 + (gm2 + gmb2)·ro1·ro2 (Gray, Hurst, Lewis & Meyer)', () => {
+    const gm = 12 * 20e-6;
+    const ro1 = 1 / ((N.lambdaL / 1e-6) * 20e-6);
+    const ro2 = 1 / ((N.lambdaL / 0.5e-6) * 20e-6);
+    const rout = ro1 + ro2 + (gm + N.eta * gm) * ro1 * ro2;
+    const r = analyze(load('readout-cascode-source.json'));
+    expect(r.dcGain! / rout).toBeCloseTo(1, 10);
+    expect(r.nodes.find((n) => n.name === 'out')!.dcOhms! / rout).toBeCloseTo(1, 10);
+    // Single dominant pole at the output: Rout·Cout, with Cout the load plus device capacitance.
+    const out = r.nodes.find((n) => n.name === 'out')!;
+    expect(out.slowest).toBe(true);
+  });
+
+  it('regulated cascode: ro1 + ro2 + ((1 + A)·gm2 + gmb2)·ro1·ro2 (Gray, Hurst, Lewis & Meyer)', () => {
+    const gm = 12 * 20e-6, A = 100;
+    const ro1 = 1 / ((N.lambdaL / 1e-6) * 20e-6);
+    const ro2 = 1 / ((N.lambdaL / 0.5e-6) * 20e-6);
+    const rout = ro1 + ro2 + ((1 + A) * gm + N.eta * gm) * ro1 * ro2;
+    const r = analyze(load('readout-cascode-regulated.json'));
+    expect(r.dcGain! / rout).toBeCloseTo(1, 9);
+    // Switching the error amplifier off gives back the plain cascode (A = 0).
+    const off = analyze(load('readout-cascode-regulated.json'), { off: ['A1'] });
+    expect(off.conditions.off).toContain('A1.A0');
+    expect(off.dcGain! / (ro1 + ro2 + (gm + N.eta * gm) * ro1 * ro2)).toBeCloseTo(1, 9);
+  });
+
+  it('two-stage amplifier in unity feedback: DC gain A/(1 + A), A = gm1·R1·gm2·R2 (common practice)', () => {
+    const A = 100e-6 * 2e6 * 1e-3 * 200e3;
+    const r = analyze(load('two-stage-miller-unity.json'));
+    expect(r.dcGain! / (A / (1 + A))).toBeCloseTo(1, 10);
+    expect(r.poles.every((p) => p.re < 0)).toBe(true);
+    // Closed-loop bandwidth near the open-loop gain-bandwidth gm1/(2π·Cc) ≈ 15.9 MHz (common
+    // practice); the non-dominant pole moves it, so only the order of magnitude is checked.
+    expect(r.bandwidthHz!).toBeGreaterThan(8e6);
+    expect(r.bandwidthHz!).toBeLessThan(60e6);
+  });
+});
+
+describe('analyze() conditions and bad input', () => {
+  it('input/output overrides are applied and recorded', () => {
+    const r = analyze(load('sensor-cs-miller.json'), { output: { kind: 'voltage', node: 'gate' }, frequencyHz: 1e6 });
+    expect(r.conditions.output).toEqual({ kind: 'voltage', node: 'gate' });
+    expect(r.conditions.frequencyHz).toBe(1e6);
+    // v(gate)/v(sensor) at DC is 1: no DC current in the gate (common practice).
+    expect(r.dcGain!).toBeCloseTo(1, 12);
+  });
+
+  it('scaling a transconductance scales the CS stage gain (gain ∝ gm, common practice)', () => {
+    const base = analyze(load('sensor-cs-miller.json'));
+    const half = analyze(load('sensor-cs-miller.json'), { scale: { 'M1.gm': 0.5 } });
+    expect(half.conditions.scaled).toEqual({ 'M1.gm': 0.5 });
+    expect(half.dcGain! / base.dcGain!).toBeCloseTo(0.5, 12);
+  });
+
+  it('structural errors give named issues and no numbers', () => {
+    const bad = load('sensor-cs-miller.json');
+    bad.parts.push({ name: 'Cfloat', kind: 'capacitor', pins: { p: 'island', n: 'island2' }, values: { value: '1p' } });
+    const r = analyze(bad);
+    expect(r.ok).toBe(false);
+    expect(r.poles).toEqual([]);
+    expect(r.dcGain).toBeNull();
+    expect(r.issues.some((i) => i.severity === 'error' && /island/.test(i.message))).toBe(true);
+  });
+
+  it('a bad value names the part and field', () => {
+    const bad = load('sensor-cs-miller.json');
+    bad.parts[1].values.value = 'lots';
+    const r = analyze(bad);
+    expect(r.ok).toBe(false);
+    expect(r.issues.some((i) => i.part === 'Rsens' && i.field === 'value')).toBe(true);
+  });
+
+  it('unknown names in off/scale/input are reported by name', () => {
+    const r = analyze(load('sensor-cs-miller.json'), { off: ['M9'] });
+    expect(r.ok).toBe(false);
+    expect(r.issues.some((i) => /M9/.test(i.message))).toBe(true);
+    const r2 = analyze(load('sensor-cs-miller.json'), { input: 'Rsens' });
+    expect(r2.ok).toBe(false);
+    expect(r2.issues.some((i) => i.field === 'input')).toBe(true);
+  });
+
+  it('an integrator gives a pole at s = 0, open-at-DC node, and null DC gain with a reason', () => {
+    const net: Netlist = {
+      format: 'polesketch-netlist', version: 1, input: 'V1', output: { kind: 'voltage', node: 'x' },
+      parts: [
+        { name: 'V1', kind: 'vsource', pins: { p: 'in', n: '0' }, values: {} },
+        { name: 'G1', kind: 'vccs', pins: { p: 'x', n: '0', cp: 'in', cn: '0' }, values: { gm: '1m' } },
+        { name: 'C1', kind: 'capacitor', pins: { p: 'x', n: '0' }, values: { value: '1p' } },
+      ],
+    };
+    const r = analyze(net);
+    expect(r.ok).toBe(true);
+    expect(r.poles[0].kind).toBe('origin');
+    expect(r.dcGain).toBeNull();
+    expect(r.reasons.dcGain).toMatch(/integrator/);
+    expect(r.nodes.find((n) => n.name === 'x')).toMatchObject({ dcOhms: null, openAtDc: true });
+    // |H| = gm/(ωC): unity gain at gm/(2πC) ≈ 159 MHz (common practice).
+    expect(r.unityGainHz! / (1e-3 / (2 * Math.PI * 1e-12))).toBeCloseTo(1, 8);
+    expect(hasNonFinite(r)).toBe(false);
+  });
+});
