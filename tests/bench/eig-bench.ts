@@ -1,0 +1,138 @@
+// Benchmark of the generalized eigen solver on random circuit pencils, and the seeded generator of
+// those pencils (shared with the tests). Compares our finiteEigenvalues against LAPACK dggev
+// (emlapack), mathjs eigs and ml-matrix EigenvalueDecomposition on the same matrices.
+import { eigs, matrix } from 'mathjs';
+import { Matrix, EigenvalueDecomposition, inverse } from 'ml-matrix';
+import { finiteEigenvalues } from '../../src/engine/linalg/qz';
+import { dggev } from './emlapack';
+
+/** Seeded generator (mulberry32, common practice). */
+export function rng(seed: number): () => number {
+  return () => {
+    seed |= 0; seed = (seed + 0x6d2b79f5) | 0;
+    let t = Math.imul(seed ^ (seed >>> 15), 1 | seed);
+    t = (t + Math.imul(t ^ (t >>> 7), 61 | t)) ^ t;
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+}
+
+export interface NetworkPencil {
+  n: number;
+  /** A = −G and B = C of the MNA system (G + sC)x = 0, row-major. */
+  A: Float64Array;
+  B: Float64Array;
+  G: Float64Array;
+  C: Float64Array;
+  nodeCount: number;
+  /** Nodes that carry no capacitor (zero rows/columns of C). */
+  bareNodes: number[];
+}
+
+export interface NetworkOptions {
+  /** Give every node a capacitor and add no voltage sources, so C is invertible. */
+  invertibleC?: boolean;
+  /** Decades spanned by the capacitor values (default 3) — more makes a stiffer pencil. */
+  capDecades?: number;
+}
+
+/** A random small-signal network of n unknowns: conductances to ground and between nearby and
+ *  far nodes, grounded and coupling capacitors, transconductances with random control pins, and
+ *  (unless invertibleC) voltage sources to ground, each on a node without capacitors so the
+ *  pencil stays of index one. Unknowns: node voltages, then one branch current per source. */
+export function randomNetworkPencil(n: number, seed: number, opts: NetworkOptions = {}): NetworkPencil {
+  const r = rng(seed);
+  const sources = opts.invertibleC ? 0 : Math.max(1, Math.round(n / 12));
+  const nodes = n - sources;
+  const G = new Float64Array(n * n), C = new Float64Array(n * n);
+  const logU = (lo: number, hi: number) => 10 ** (lo + (hi - lo) * r());
+  const pick = () => Math.floor(r() * nodes);
+  const stamp = (M: Float64Array, a: number, b: number, v: number) => {
+    M[a * n + a] += v; M[b * n + b] += v; M[a * n + b] -= v; M[b * n + a] -= v;
+  };
+  const sourceNodes = new Set<number>();
+  while (sourceNodes.size < sources) sourceNodes.add(pick());
+  const capDecades = opts.capDecades ?? 3;
+  for (let i = 0; i < nodes; i++) {
+    G[i * n + i] += logU(-5, -3);
+    if (i + 1 < nodes) stamp(G, i, i + 1, logU(-5, -3));
+    const near = Math.min(nodes - 1, i + 2 + Math.floor(r() * 4));
+    if (near !== i && r() < 0.5) stamp(G, i, near, logU(-5, -3));
+  }
+  for (let k = 0; k < Math.floor(nodes / 10); k++) {
+    const a = pick(), b = pick();
+    if (a !== b) stamp(G, a, b, logU(-5, -3));
+  }
+  const capable = (i: number) => !sourceNodes.has(i);
+  const bare = new Set<number>();
+  for (let i = 0; i < nodes; i++) {
+    if (!capable(i)) { bare.add(i); continue; }
+    if (opts.invertibleC || r() < 0.75) C[i * n + i] += logU(-14, -14 + capDecades);
+    else bare.add(i);
+  }
+  for (let k = 0; k < Math.floor(nodes / 4); k++) {
+    const a = pick(), b = pick();
+    if (a !== b && !bare.has(a) && !bare.has(b)) stamp(C, a, b, logU(-14, -14 + capDecades));
+  }
+  // Transconductance gm·(v(cp) − v(cn)) out of node p into node q (src/engine/types.ts).
+  for (let k = 0; k < Math.floor(nodes / 4); k++) {
+    const p = pick(), q = r() < 0.5 ? -1 : pick(), cp = pick(), cn = r() < 0.5 ? -1 : pick();
+    const gm = logU(-4, -2.5) * (r() < 0.8 ? 1 : -1);
+    const add = (row: number, col: number, v: number) => { if (row >= 0 && col >= 0) G[row * n + col] += v; };
+    add(p, cp, gm); add(p, cn, -gm); add(q, cp, -gm); add(q, cn, gm);
+  }
+  let branch = nodes;
+  for (const p of sourceNodes) {
+    G[p * n + branch] += 1; G[branch * n + p] += 1;
+    branch++;
+  }
+  const A = G.map((v) => -v);
+  return { n, A, B: C, G, C, nodeCount: nodes, bareNodes: [...bare].sort((a, b) => a - b) };
+}
+
+/** −C⁻¹G as an ml-matrix Matrix (its eigenvalues are the finite λ of (−G, C)). */
+export function standardForm(p: NetworkPencil): Matrix {
+  const rows = (M: Float64Array) => Array.from({ length: p.n }, (_, i) => Array.from(M.subarray(i * p.n, (i + 1) * p.n)));
+  return inverse(new Matrix(rows(p.C))).mmul(new Matrix(rows(p.A)));
+}
+
+function median(xs: number[]): number {
+  const s = [...xs].sort((a, b) => a - b);
+  return s[Math.floor(s.length / 2)];
+}
+
+function time(fn: () => void, repeats: number): number {
+  fn(); // warm-up
+  const ts: number[] = [];
+  for (let k = 0; k < repeats; k++) {
+    const t0 = performance.now();
+    fn();
+    ts.push(performance.now() - t0);
+  }
+  return median(ts);
+}
+
+export interface EigBenchRow { n: number; ours: number; oursNoRefine: number; dggev: number; mathjs: number; mlMatrix: number }
+
+/** Time the solvers and print a table of medians (ms) and ratios. */
+export function runEigBench(sizes = [10, 30, 60, 120, 200], log: (s: string) => void = console.log): EigBenchRow[] {
+  const rows: EigBenchRow[] = [];
+  log('generalized eigenvalues of random network pencils — median ms (ratio = ours / other)');
+  log('   n   ours  ours(no refine)   dggev  mathjs eigs  ml-matrix   ours/dggev  ours/mathjs  ours/ml-matrix');
+  for (const n of sizes) {
+    const repeats = n <= 60 ? 15 : n <= 120 ? 7 : 5;
+    const p = randomNetworkPencil(n, 1000 + n);
+    const q = randomNetworkPencil(n, 2000 + n, { invertibleC: true });
+    const M = standardForm(q);
+    const ours = time(() => finiteEigenvalues(p.A, p.B, n), repeats);
+    const plain = time(() => finiteEigenvalues(p.A, p.B, n, { refine: false }), repeats);
+    const lap = time(() => dggev(p.A, p.B, n), repeats);
+    const mjRepeats = n >= 120 ? 3 : repeats;
+    const mj = time(() => eigs(matrix(M.to2DArray()), { eigenvectors: false }), mjRepeats);
+    const ml = time(() => new EigenvalueDecomposition(M, { assumeSymmetric: false }), repeats);
+    rows.push({ n, ours, oursNoRefine: plain, dggev: lap, mathjs: mj, mlMatrix: ml });
+    const f = (x: number, w: number) => x.toFixed(x < 10 ? 2 : 1).padStart(w);
+    log(`${String(n).padStart(4)} ${f(ours, 6)} ${f(plain, 16)} ${f(lap, 7)} ${f(mj, 12)} ${f(ml, 10)} ${f(ours / lap, 12)} ${f(ours / mj, 12)} ${f(ours / ml, 15)}`);
+  }
+  log('mathjs and ml-matrix run on −C⁻¹G of a pencil with invertible C (same size); dggev and ours on (−G, C).');
+  return rows;
+}
