@@ -42,6 +42,8 @@ export interface AnalyzeOptions {
   sweep?: { fMin?: number; fMax?: number; perDecade?: number };
   /** Frequency (Hz) of the node-impedance column; default: bandwidth, else unity gain, else slowest pole. */
   frequencyHz?: number;
+  /** Polish every pole and zero on the original equations (default: only for small systems). */
+  refine?: boolean;
 }
 
 export interface AnalysisConditions {
@@ -131,12 +133,12 @@ export function runAnalyses(sys: MnaSystem, issues: EngineIssue[], conditions: A
     res.issues = [...issues, singularIssue(sys, dc)];
     return sanitize(res);
   }
-  const poles = computePoles(sys, dc);
+  const poles = computePoles(sys, dc, { refine: opts.refine });
   res.poles = poles.poles;
   res.poleInfo = { infiniteCount: poles.infiniteCount, originCount: poles.originCount, status: poles.status };
   if (poles.reason) reasons.poles = poles.reason;
 
-  const zeros = computeZeros(sys, poles.poles);
+  const zeros = computeZeros(sys, poles.poles, { refine: opts.refine });
   res.zeros = zeros.zeros;
   res.zeroInfo = { infiniteCount: zeros.infiniteCount, status: zeros.status };
   if (zeros.reason) reasons.zeros = zeros.reason;

@@ -43,12 +43,16 @@ export function describePole(re: number, im: number, origin = false): Pole {
   return { re, im: complex ? im : 0, hz: w / (2 * Math.PI), omegaN: w, q, kind: complex ? 'complex' : 'real', rhp: re > 0 };
 }
 
-export function computePoles(sys: Pick<MnaSystem, 'n' | 'G' | 'C'>, dc: DcFactor = factorDc(sys)): PoleResult {
+/** Polishing each eigenvalue on the original pencil costs one LU per eigenvalue (O(n⁴) in all);
+ *  by default it is done for small systems only, where it is cheap. */
+export const REFINE_UP_TO = 30;
+
+export function computePoles(sys: Pick<MnaSystem, 'n' | 'G' | 'C'>, dc: DcFactor = factorDc(sys), opts: { refine?: boolean } = {}): PoleResult {
   const { n, G, C } = sys;
   if (n === 0) return { poles: [], infiniteCount: 0, originCount: 0, status: 'empty', reason: 'no unknowns' };
   const A = new Float64Array(n * n);
   for (let i = 0; i < n * n; i++) A[i] = -G[i];
-  const eig = finiteEigenvalues(A, C, n);
+  const eig = finiteEigenvalues(A, C, n, { refine: opts.refine ?? n <= REFINE_UP_TO });
   if (eig.status !== 'ok') {
     return { poles: [], infiniteCount: eig.infiniteCount, originCount: 0, status: 'no-convergence', reason: 'the eigenvalue iteration did not converge' };
   }

@@ -9,7 +9,7 @@ import type { Cx, MnaSystem } from '../types';
 import { finiteEigenvalues } from '../linalg/qz';
 import { luComplex, solveComplex } from '../linalg/lu';
 import { isZeroVector } from './transfer';
-import type { Pole } from './poles';
+import { REFINE_UP_TO, type Pole } from './poles';
 
 export interface Zero {
   re: number;
@@ -56,7 +56,7 @@ function probe(sys: ZeroSys, s: Cx): { rel: number } | null {
   return Number.isFinite(rel) ? { rel } : null;
 }
 
-export function computeZeros(sys: ZeroSys, poles: Pole[] = []): ZeroResult {
+export function computeZeros(sys: ZeroSys, poles: Pole[] = [], opts: { refine?: boolean } = {}): ZeroResult {
   const { n, G, C, b, c } = sys;
   if (isZeroVector(b)) return { zeros: [], infiniteCount: 0, status: 'no-input', reason: 'no input source chosen' };
   if (isZeroVector(c)) return { zeros: [], infiniteCount: 0, status: 'no-output', reason: 'no output chosen' };
@@ -85,7 +85,7 @@ export function computeZeros(sys: ZeroSys, poles: Pole[] = []): ZeroResult {
     A[i * m + n] = -k * b[i];
     A[n * m + i] = -k * c[i];
   }
-  const eig = finiteEigenvalues(A, B, m);
+  const eig = finiteEigenvalues(A, B, m, { refine: opts.refine ?? m <= REFINE_UP_TO });
   if (eig.status !== 'ok') return { zeros: [], infiniteCount: eig.infiniteCount, status: 'no-convergence', reason: 'the eigenvalue iteration did not converge' };
   const zeros = eig.values.map((v) => {
     const w = Math.hypot(v.re, v.im);
