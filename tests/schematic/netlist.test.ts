@@ -1,21 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { documentToNetlist, isDrawing } from '../../src/schematic/toNetlist';
 import { loadDrawing, saveDrawing } from '../../src/schematic/file';
-import { drawing, part, pt } from './build';
-
-// A common-source stage: input marker → gate of M1, R1 from the rail to the drain, source on
-// ground, output marker on the drain (labelled "out").
-export function commonSource() {
-  return drawing([
-    part('nmos', 'M1', 100, 100), // g (80,100) d (110,70) s (110,130)
-    part('ground', 'GND1', 110, 130),
-    part('resistor', 'R1', 110, 40, { params: { value: '4.7k' } }), // p (110,10) n (110,70)
-    part('supply', 'VR1', 110, 10),
-    part('input', 'IN1', 40, 100), // p (60,100)
-    part('output', 'OUT1', 150, 70), // p (130,70)
-    part('netLabel', 'NL1', 110, 70, { params: { net: 'out' } }),
-  ], [['g', pt(60, 100), pt(80, 100)], ['o', pt(110, 70), pt(130, 70)]]);
-}
+import { commonSource } from './build';
 
 describe('documentToNetlist', () => {
   it('builds the engine netlist of a common-source stage', () => {
