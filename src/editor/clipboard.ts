@@ -3,6 +3,7 @@
 
 import type { DrawingDocument, ItemId, PartId, PartRecord, Point, WireId, WireRecord } from '../schematic/document';
 import { DRAWING_FORMAT, DRAWING_VERSION, freshId, pointKey, snap } from '../schematic/document';
+import { distanceToSegment } from './geometry';
 import { validateDrawing } from '../schematic/file';
 import { nextRef, partPins } from '../schematic/kinds';
 import { symbolOf } from '../schematic/symbols';
@@ -83,4 +84,36 @@ export function insertClip(doc: DrawingDocument, clip: Clip, dx: number, dy: num
     added.push(id);
   }
   return added;
+}
+
+/** Contact points of a clip shifted by (dx, dy): pins and wire vertices. */
+function clipPoints(clip: Clip, dx: number, dy: number): Point[] {
+  const pts: Point[] = [];
+  for (const p of clip.parts) for (const pin of partPins({ ...p, x: p.x + dx, y: p.y + dy })) pts.push(pin);
+  for (const w of clip.wires) for (const q of w.points) pts.push({ x: q.x + dx, y: q.y + dy });
+  return pts;
+}
+
+/** Would the shifted clip touch the drawing's pins or wires (and so join nets by accident)? */
+export function clipTouches(doc: DrawingDocument, clip: Clip, dx: number, dy: number): boolean {
+  const pins = new Set<string>();
+  for (const p of Object.values(doc.parts)) for (const pin of partPins(p)) pins.add(pointKey(pin));
+  const wires = Object.values(doc.wires);
+  for (const q of clipPoints(clip, dx, dy)) {
+    if (pins.has(pointKey(q))) return true;
+    for (const w of wires) for (let i = 1; i < w.points.length; i++) if (distanceToSegment(q, w.points[i - 1], w.points[i]) === 0) return true;
+  }
+  return false;
+}
+
+/** An offset for a duplicate: to the right of the clip, moved on until it touches nothing. */
+export function freeOffset(doc: DrawingDocument, clip: Clip): { dx: number; dy: number } {
+  let x0 = Infinity, x1 = -Infinity;
+  for (const q of clipPoints(clip, 0, 0)) { x0 = Math.min(x0, q.x); x1 = Math.max(x1, q.x); }
+  const base = Number.isFinite(x0) ? snap(x1 - x0) + 40 : 20;
+  for (let k = 0; k < 50; k++) {
+    const dx = base + 10 * k;
+    if (!clipTouches(doc, clip, dx, 0)) return { dx, dy: 0 };
+  }
+  return { dx: base, dy: 0 };
 }

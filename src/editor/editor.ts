@@ -6,7 +6,7 @@ import { emptyDocument, isPartId, snap } from '../schematic/document';
 import { History } from '../schematic/history';
 import { checkRef, newPart, newPartId, nextRef } from '../schematic/kinds';
 import { DEFAULT_CAMERA, fitToView, wheelZoom, zoomAt, type Camera } from '../canvas/camera';
-import { clipOf, clipOrigin, insertClip, parseClip, serializeClip, type Clip } from './clipboard';
+import { clipOf, clipOrigin, freeOffset, insertClip, parseClip, serializeClip, type Clip } from './clipboard';
 import { COMMANDS_BY_ID, commandForKey, type EditorActions } from './commands';
 import { deleteItems, flipItems, turnItems } from './edits';
 import { boundsOf } from './geometry';
@@ -26,7 +26,6 @@ export function createEditor(initial?: DrawingDocument, opts: { host?: EditorHos
   let viewport = { width: 800, height: 600 };
   let host: EditorHost = opts.host ?? {};
   let clip: Clip | null = null;
-  let pasteCount = 0;
   const data: ToolData = {};
   const listeners = new Set<() => void>();
   let batching = false;
@@ -124,13 +123,13 @@ export function createEditor(initial?: DrawingDocument, opts: { host?: EditorHos
       if (selection.size === 0) return;
       const c = clipOf(history.doc, selection);
       let added: ItemId[] = [];
-      history.change('Duplicate', (d) => { added = insertClip(d as DrawingDocument, c, 20, 20); });
+      const { dx, dy } = freeOffset(history.doc, c);
+      history.change('Duplicate', (d) => { added = insertClip(d as DrawingDocument, c, dx, dy); });
       setSelection(added);
     },
     copy: () => {
       if (selection.size === 0) return;
       clip = clipOf(history.doc, selection);
-      pasteCount = 0;
       host.writeClipboard?.(serializeClip(clip));
     },
     cut: () => { actions.copy(); actions.deleteSelection(); },
@@ -171,10 +170,10 @@ export function createEditor(initial?: DrawingDocument, opts: { host?: EditorHos
 
   function pasteClip(c: Clip, at?: { x: number; y: number }): void {
     const o = clipOrigin(c);
-    pasteCount += 1;
     const target = at ?? state.cursor;
-    const dx = target ? snap(target.x) - o.x : 20 * pasteCount;
-    const dy = target ? snap(target.y) - o.y : 20 * pasteCount;
+    const free = freeOffset(history.doc, c);
+    const dx = target ? snap(target.x) - o.x : free.dx;
+    const dy = target ? snap(target.y) - o.y : free.dy;
     let added: ItemId[] = [];
     history.change('Paste', (d) => { added = insertClip(d as DrawingDocument, c, dx, dy); });
     setSelection(added);
