@@ -132,7 +132,7 @@ export function factorDc(sys: Pick<MnaSystem, 'n' | 'G' | 'C'>): DcFactor {
   const left = zl.map((k) => nullFromU(luT, k, zlSet));
   const m = right.length;
   let status: DcStatus = 'integrating';
-  let kInv = new Float64Array(0);
+  let kInv: Float64Array = new Float64Array(0);
   if (left.length !== m) {
     status = 'singular-pencil';
   } else {

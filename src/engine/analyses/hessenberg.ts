@@ -78,8 +78,10 @@ export function hessenbergForm(
   return { n, sigma, H: M, bt, ct };
 }
 
-/** cᵀ(G + sC)⁻¹b from the Hessenberg form; null when I + (s − σ)H is singular (s is a pole). */
-export function evalHessenberg(h: HessenbergForm, s: Cx, work?: { re: Float64Array; im: Float64Array }): Cx | null {
+/** cᵀ(G + sC)⁻¹b from the Hessenberg form; null when I + (s − σ)H is singular (s is a pole).
+ *  `spread` = Σ|c̃_i·y_i| / |H|: how much the final sum cancelled. The rounding error of this path
+ *  is about ulp·spread relative, so a large spread (deep attenuation) calls for a direct solve. */
+export function evalHessenberg(h: HessenbergForm, s: Cx, work?: { re: Float64Array; im: Float64Array }): (Cx & { spread: number }) | null {
   const { n, H, bt, ct } = h;
   const dr = s.re - h.sigma;
   const di = s.im;
@@ -130,6 +132,7 @@ export function evalHessenberg(h: HessenbergForm, s: Cx, work?: { re: Float64Arr
   }
   let hr = 0;
   let hi = 0;
+  let sum = 0;
   for (let i = n - 1; i >= 0; i--) {
     let sr = yr[i];
     let si = yi[i];
@@ -146,7 +149,9 @@ export function evalHessenberg(h: HessenbergForm, s: Cx, work?: { re: Float64Arr
     yi[i] = (si * pr - sr * pi) / d;
     hr += ct[i] * yr[i];
     hi += ct[i] * yi[i];
+    sum += Math.abs(ct[i]) * Math.hypot(yr[i], yi[i]);
   }
   if (!Number.isFinite(hr) || !Number.isFinite(hi)) return null;
-  return { re: hr, im: hi };
+  const mag = Math.hypot(hr, hi);
+  return { re: hr, im: hi, spread: mag > 0 ? sum / mag : sum > 0 ? Infinity : 1 };
 }

@@ -50,6 +50,8 @@ export interface TransferEvaluator {
   method: 'hessenberg' | 'direct';
 }
 
+const MAX_SPREAD = 1e5;
+
 function frobenius(A: Float64Array): number {
   let s = 0;
   for (let i = 0; i < A.length; i++) s += A[i] * A[i];
@@ -84,11 +86,14 @@ export function transferEvaluator(sys: TransferSys, probeHz?: number): TransferE
   if (!form) return direct;
   const h = form;
   const work = { re: new Float64Array(n * n), im: new Float64Array(n * n) };
-  const fast: TransferEvaluator = {
-    at: (s) => evalHessenberg(h, s, work),
-    atHz: (f) => evalHessenberg(h, { re: 0, im: 2 * Math.PI * f }, work),
-    method: 'hessenberg',
+  // Where the fast path's final sum cancels by more than MAX_SPREAD (|H| far below the size of
+  // the internal terms, e.g. deep in a stop band) the point is recomputed directly.
+  const at = (s: Cx): Cx | null => {
+    const v = evalHessenberg(h, s, work);
+    if (v && v.spread <= MAX_SPREAD) return { re: v.re, im: v.im };
+    return transferDirect(sys, s);
   };
+  const fast: TransferEvaluator = { at, atHz: (f) => at({ re: 0, im: 2 * Math.PI * f }), method: 'hessenberg' };
   const probe = { re: 0, im: probeHz !== undefined && probeHz > 0 ? 2 * Math.PI * probeHz : w0 };
   const ref = transferDirect(sys, probe);
   if (ref && Math.hypot(ref.re, ref.im) > 0 && relErr(fast.at(probe), ref) > 1e-7) return direct;
