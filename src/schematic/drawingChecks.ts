@@ -20,7 +20,9 @@ export type DrawingIssueCode =
   | 'no-input'
   | 'no-output'
   | 'several-inputs'
-  | 'several-outputs';
+  | 'several-outputs'
+  /** The input was not a valid drawing at all (documentToNetlist on unchecked JSON). */
+  | 'bad-file';
 
 export interface DrawingIssue {
   severity: 'error' | 'warning';

@@ -6,6 +6,7 @@ import type { Netlist, NetlistPart } from '../engine/types';
 import { DEFAULT_PROCESS_NAME } from '../engine/process';
 import type { DrawingDocument } from './document';
 import { DRAWING_FORMAT, pinKey } from './document';
+import { loadDrawing } from './file';
 import { computeConnectivity, GROUND_NET, type NetInfo } from './connectivity';
 import { checkDrawing, type DrawingIssue } from './drawingChecks';
 import { engineValues } from './kinds';
@@ -26,7 +27,14 @@ export function isDrawing(json: unknown): boolean {
   return typeof json === 'object' && json !== null && (json as { format?: unknown }).format === DRAWING_FORMAT;
 }
 
-export function documentToNetlist(doc: DrawingDocument): DrawingNetlist {
+/** Accepts a document or unchecked JSON (e.g. a file read by the CLI): it is validated (and
+ *  migrated) first, so a broken input gives a 'bad-file' issue, never a crash. */
+export function documentToNetlist(source: DrawingDocument | unknown): DrawingNetlist {
+  const loaded = loadDrawing(source);
+  if (!loaded.ok) {
+    return { issues: [{ severity: 'error', code: 'bad-file', message: loaded.reason, x: 0, y: 0 }], netOfPin: {}, nets: [], junctions: [] };
+  }
+  const doc = loaded.doc;
   const conn = computeConnectivity(doc);
   const issues = checkDrawing(doc, conn);
   const base = { issues, netOfPin: conn.netOfPin, nets: conn.nets, junctions: conn.junctions };

@@ -68,3 +68,14 @@ describe('capacitance overrides', () => {
     expect('cgs' in m.values).toBe(false);
   });
 });
+
+describe('unchecked input', () => {
+  it('turns a broken drawing object into a bad-file issue instead of throwing', () => {
+    const r = documentToNetlist({ format: 'polesketch-drawing', version: 1, parts: { 'part:r1': { id: 'part:r1', kind: 'resistor' } }, wires: {} });
+    expect(r.netlist).toBeUndefined();
+    expect(r.issues).toHaveLength(1);
+    expect(r.issues[0]).toMatchObject({ code: 'bad-file', severity: 'error' });
+    expect(r.issues[0].message).toMatch(/Part part:r1: field "ref" must be a text/);
+    expect(documentToNetlist(null).issues[0].code).toBe('bad-file');
+  });
+});
