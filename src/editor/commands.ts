@@ -25,6 +25,8 @@ export interface EditorActions {
   cut(): void;
   paste(): void;
   selectAll(): void;
+  /** Move the selection by a grid step (wires follow). */
+  nudge(dx: number, dy: number): void;
   cancel(): void;
   setTool(tool: 'select' | 'wire' | 'place', kind?: SymbolKind): void;
   fitView(): void;
@@ -79,6 +81,10 @@ export const COMMANDS: readonly Command[] = [
   { id: 'edit.paste', label: 'Paste', group: 'Edit', shortcuts: ['Mod+V'], enabled: always, run: (a) => a.paste() },
   { id: 'edit.undo', label: 'Undo', group: 'Edit', shortcuts: ['Mod+Z'], enabled: (a) => a.canUndo(), run: (a) => a.undo() },
   { id: 'edit.redo', label: 'Redo', group: 'Edit', shortcuts: ['Mod+Shift+Z', 'Mod+Y'], enabled: (a) => a.canRedo(), run: (a) => a.redo() },
+  { id: 'edit.nudgeLeft', label: 'Nudge left one grid step', group: 'Edit', shortcuts: ['ArrowLeft'], enabled: (a) => a.hasSelection(), run: (a) => a.nudge(-10, 0) },
+  { id: 'edit.nudgeRight', label: 'Nudge right one grid step', group: 'Edit', shortcuts: ['ArrowRight'], enabled: (a) => a.hasSelection(), run: (a) => a.nudge(10, 0) },
+  { id: 'edit.nudgeUp', label: 'Nudge up one grid step', group: 'Edit', shortcuts: ['ArrowUp'], enabled: (a) => a.hasSelection(), run: (a) => a.nudge(0, -10) },
+  { id: 'edit.nudgeDown', label: 'Nudge down one grid step', group: 'Edit', shortcuts: ['ArrowDown'], enabled: (a) => a.hasSelection(), run: (a) => a.nudge(0, 10) },
   { id: 'edit.selectAll', label: 'Select all', group: 'Edit', shortcuts: ['Mod+A'], enabled: (a) => !a.isEmpty(), run: (a) => a.selectAll() },
   { id: 'view.fit', label: 'Fit drawing to view', group: 'View', shortcuts: ['h'], enabled: always, run: (a) => a.fitView() },
   { id: 'view.zoomIn', label: 'Zoom in', group: 'View', shortcuts: ['=', '+'], enabled: always, run: (a) => a.zoom(1.25) },

@@ -8,7 +8,7 @@ import { checkRef, newPart, newPartId, nextRef } from '../schematic/kinds';
 import { DEFAULT_CAMERA, fitToView, wheelZoom, zoomAt, type Camera } from '../canvas/camera';
 import { clipOf, clipOrigin, freeOffset, insertClip, parseClip, serializeClip, type Clip } from './clipboard';
 import { COMMANDS_BY_ID, commandForKey, type EditorActions } from './commands';
-import { deleteItems, flipItems, turnItems } from './edits';
+import { deleteItems, flipItems, moveItems, reorientPart, turnItems } from './edits';
 import { boundsOf } from './geometry';
 import { handlePointer, type ToolContext, type ToolData } from './tools';
 import type { Editor, EditorEvent, EditorHost, EditorState } from './types';
@@ -137,12 +137,17 @@ export function createEditor(initial?: DrawingDocument, opts: { host?: EditorHos
       if (host.requestPaste) host.requestPaste();
       else if (clip) pasteClip(clip);
     },
+    nudge: (dx, dy) => {
+      if (selection.size === 0 || history.inGesture) return;
+      const ids = selection;
+      history.change('Nudge', (d) => moveItems(d as DrawingDocument, ids, dx, dy));
+    },
     selectAll: () => setSelection([...Object.keys(history.doc.parts), ...Object.keys(history.doc.wires)] as ItemId[]),
     cancel: () => {
       if (state.helpOpen) { setState({ helpOpen: false }); return; }
       const mode = state.mode;
       cancelGesture();
-      if (mode === 'wire.drawing') { setState({ mode: 'wire.idle', wirePreview: null }); return; }
+      if (mode === 'wire.drawing') { setState({ mode: state.tool === 'wire' ? 'wire.idle' : 'select.idle', wirePreview: null }); return; }
       if (mode === 'select.idle') { setSelection([]); setState({ notice: null }); return; }
       setState({ mode: 'select.idle', tool: 'select', ghost: null, wirePreview: null, box: null });
     },
@@ -252,8 +257,11 @@ export function createEditor(initial?: DrawingDocument, opts: { host?: EditorHos
     updatePart(part, patch) {
       if (!history.doc.parts[part]) return;
       history.change('Edit part', (d) => {
-        const p = (d as DrawingDocument).parts[part];
-        for (const [k, v] of Object.entries(patch)) (p as unknown as Record<string, unknown>)[k] = v;
+        const doc = d as DrawingDocument;
+        const p = doc.parts[part];
+        const { rotation, mirror, ...rest } = patch;
+        if (rotation !== undefined || mirror !== undefined) reorientPart(doc, part, rotation ?? p.rotation, mirror ?? p.mirror);
+        for (const [k, v] of Object.entries(rest)) (p as unknown as Record<string, unknown>)[k] = v;
         if (patch.isInput) for (const q of Object.values((d as DrawingDocument).parts)) if (q.id !== part && q.isInput) q.isInput = false;
       });
     },

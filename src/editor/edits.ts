@@ -103,6 +103,15 @@ function transformItems(doc: DrawingDocument, ids: ReadonlySet<ItemId>, map: Poi
   }
 }
 
+/** Set a part's rotation and mirror in place (about its origin); attached wires follow. */
+export function reorientPart(doc: DrawingDocument, id: PartId, rotation: Rotation, mirror: boolean): void {
+  if (!doc.parts[id]) return;
+  transformItems(doc, new Set<ItemId>([id]), (p) => ({ x: p.x, y: p.y }), (part) => {
+    part.rotation = rotation;
+    part.mirror = mirror;
+  });
+}
+
 function pivotOf(doc: DrawingDocument, ids: ReadonlySet<ItemId>): Point | null {
   const parts = [...ids].filter((i) => i in doc.parts);
   if (parts.length === 1) {

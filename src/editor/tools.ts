@@ -3,6 +3,7 @@
 //   place.ghost (the part follows the pointer, placed on release)
 //   wire.idle → wire.drawing (click adds a leg with an automatic elbow; ends on a pin or wire,
 //   on a double click, Enter or a click on the last point; Escape drops it) → wire.idle
+//   select.pointing on a pin of an unselected part + drag → wire.drawing → select.idle
 //   any mode → pan.dragging (middle button, or Alt + drag) → back
 
 import { produce } from 'immer';
@@ -15,7 +16,7 @@ import { cleanPolyline, elbowPath, hitTest, isConnectionPoint, itemOfHit, itemsI
 import type { EditorEvent, EditorState, ModeName } from './types';
 
 export interface ToolData {
-  press?: { start: Point; sx: number; sy: number; item: ItemId | null; shift: boolean; wasSelected: boolean };
+  press?: { start: Point; sx: number; sy: number; item: ItemId | null; shift: boolean; wasSelected: boolean; pin?: Point };
   move?: { startDoc: DrawingDocument; dx: number; dy: number };
   wire?: { points: Point[]; hFirst?: boolean; downS?: { sx: number; sy: number } };
   pan?: { sx: number; sy: number; back: ModeName };
@@ -65,7 +66,12 @@ function finishWire(ctx: ToolContext): void {
       });
     }
   }
-  ctx.setState({ mode: 'wire.idle', wirePreview: null });
+  ctx.setState({ mode: idleMode(ctx), wirePreview: null });
+}
+
+/** Where wire drawing returns to: the wire tool, or select when the wire was dragged from a pin. */
+function idleMode(ctx: ToolContext): ModeName {
+  return ctx.state.tool === 'wire' ? 'wire.idle' : 'select.idle';
 }
 
 function addWirePoint(ctx: ToolContext, q: Point): void {
@@ -105,7 +111,8 @@ export function handlePointer(ctx: ToolContext, ev: EditorEvent): boolean {
       }
       if (button !== 0) return false;
       if (state.mode === 'select.idle') {
-        const item = itemOfHit(hitAt(ctx, p));
+        const hit = hitAt(ctx, p);
+        const item = itemOfHit(hit);
         const wasSelected = item !== null && ctx.selection.has(item);
         if (item && ev.shift) {
           const next = new Set(ctx.selection);
@@ -115,7 +122,9 @@ export function handlePointer(ctx: ToolContext, ev: EditorEvent): boolean {
         } else if (item && !wasSelected) {
           ctx.setSelection([item]);
         }
-        data.press = { start: p, ...s, item, shift: !!ev.shift, wasSelected };
+        // Dragging from a pin of a part that was not selected draws a wire from that pin.
+        const pin = hit.type === 'pin' && !wasSelected && !ev.shift ? { x: hit.x, y: hit.y } : undefined;
+        data.press = { start: p, ...s, item, shift: !!ev.shift, wasSelected, pin };
         ctx.setState({ mode: 'select.pointing', notice: null });
         return true;
       }
@@ -148,6 +157,13 @@ export function handlePointer(ctx: ToolContext, ev: EditorEvent): boolean {
         case 'select.pointing': {
           const pr = data.press!;
           if (Math.hypot(s.sx - pr.sx, s.sy - pr.sy) < DRAG_PIXELS) return true;
+          if (pr.pin) {
+            data.press = undefined;
+            ctx.setSelection([]);
+            data.wire = { points: [pr.pin], downS: { sx: pr.sx, sy: pr.sy } };
+            ctx.setState({ mode: 'wire.drawing', wirePreview: [pr.pin] });
+            return handlePointer(ctx, ev);
+          }
           if (pr.item && ctx.selection.has(pr.item)) {
             ctx.history.begin('Move');
             data.move = { startDoc: ctx.doc, dx: 0, dy: 0 };
@@ -261,7 +277,7 @@ export function handlePointer(ctx: ToolContext, ev: EditorEvent): boolean {
         if (ev.key === 'Enter') { finishWire(ctx); return true; }
         if (ev.key === 'Escape') {
           data.wire = undefined;
-          ctx.setState({ mode: 'wire.idle', wirePreview: null });
+          ctx.setState({ mode: idleMode(ctx), wirePreview: null });
           return true;
         }
         if (ev.key === 'Backspace' && data.wire!.points.length > 1) {
