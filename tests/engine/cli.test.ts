@@ -8,7 +8,7 @@ interface Run { code: number; stdout: string; stderr: string }
 
 function cli(args: string[]): Promise<Run> {
   return new Promise((resolve) => {
-    execFile('npx', ['tsx', 'src/cli/analyze.ts', ...args], { cwd: process.cwd(), timeout: 50000 }, (err, stdout, stderr) => {
+    execFile('npx', ['tsx', 'src/cli/analyze.ts', ...args], { cwd: process.cwd(), timeout: 110000 }, (err, stdout, stderr) => {
       const code = err ? (typeof (err as { code?: unknown }).code === 'number' ? (err as { code: number }).code : -1) : 0;
       resolve({ code, stdout, stderr });
     });
@@ -23,7 +23,7 @@ let tmp = '';
 beforeAll(() => { tmp = mkdtempSync(join(tmpdir(), 'analyze-cli-')); });
 afterAll(() => { if (tmp) rmSync(tmp, { recursive: true, force: true }); });
 
-describe('analyze CLI', () => {
+describe('analyze CLI', { timeout: 120000 }, () => {
   it('runs on every example with --json and prints the whole result', async () => {
     const runs = await Promise.all(examples.map((f) => cli([join(dir, f), '--json'])));
     runs.forEach((r, i) => {
