@@ -72,6 +72,8 @@ export interface LoopOptions {
 
 const EDGE_FLOOR = 1e-9;
 const ROLE_PREFERENCE = ['A0', 'gain', 'gm', 'gmb'];
+/** Roles of the chain inside an amplifier macro (stamps/amplifier.ts). */
+const MACRO_ROLES = ['A0', 'stage2', 'out'];
 
 export function discoverLoops(sys: MnaSystem, opts: LoopOptions = {}): LoopDiscovery {
   const threshold = opts.threshold ?? 0.01;
@@ -134,8 +136,10 @@ export function discoverLoops(sys: MnaSystem, opts: LoopOptions = {}): LoopDisco
     const sweepRR = rr.get(key)!;
     return {
       id: members.map((m) => m.id).join('>'),
-      label: parts.length === 1 ? `${parts[0]} (local)` : parts.join(' → '),
-      kind: parts.length === 1 ? 'local' as const : 'global' as const,
+      label: parts.join(' → '),
+      // local: confined to one device's own sources (degeneration, diode connection, follower);
+      // a loop around an amplifier macro always closes outside it, so it is global
+      kind: parts.length === 1 && !members.some((m) => MACRO_ROLES.includes(m.role)) ? 'local' as const : 'global' as const,
       members,
       nets: loopNets(sys, graph, ordered),
       key,

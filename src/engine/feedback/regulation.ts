@@ -34,9 +34,15 @@ export interface Regulation {
   summary: string;
 }
 
+/** At DC first (the textbook figures: Rout raised, a node held); when the loop changes nothing
+ *  there (e.g. closed only through a capacitor), at the frequency where its cycle gain peaks. */
 export function loopRegulation(sys: MnaSystem, loop: Loop, opts: { scale?: Record<string, number>; fHz?: number } = {}): Regulation {
-  const atHz = opts.fHz ?? (loop.band && loop.band.fromHz > 0 ? loop.peakAtHz : 0);
-  return regulationOf(sys, loop.key, { ...opts, fHz: atHz, loopId: loop.id, preferNets: loop.nets });
+  const common = { ...opts, loopId: loop.id, preferNets: loop.nets };
+  if (opts.fHz !== undefined) return regulationOf(sys, loop.key, common);
+  const dc = regulationOf(sys, loop.key, { ...common, fHz: 0 });
+  if (dc.holdsVoltage || dc.holdsCurrent || loop.peakAtHz === 0) return dc;
+  const hf = regulationOf(sys, loop.key, { ...common, fHz: loop.peakAtHz });
+  return hf.status === 'ok' && (hf.holdsVoltage || hf.holdsCurrent) ? hf : dc;
 }
 
 export function regulationOf(

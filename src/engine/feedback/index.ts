@@ -1,0 +1,159 @@
+// Public API of the feedback engine: loops, their return ratios, what each regulates, stability,
+// boosters, doublets and the slowest pole's sensitivities in one JSON-safe result; plus loop on/off
+// (A/B) and root locus. Every figure is a linear small-signal estimate about the entered bias point.
+import type { EngineIssue, MnaSystem, Netlist } from '../types';
+import { buildMna } from '../mna';
+import { discoverLoops } from './loops';
+import type { Loop, LoopOptions } from './loops';
+import { loopRegulation } from './regulation';
+import type { Regulation } from './regulation';
+import { loopMargins } from './margins';
+import type { LoopMargins } from './margins';
+import { boosterChecks, findDoublets } from './doublets';
+import type { BoosterCheck, DoubletResult } from './doublets';
+import { poleSensitivity } from './sensitivity';
+import type { PoleSensitivity } from './sensitivity';
+import { scaledG, sourceStamps } from './pencil';
+
+export { discoverLoops } from './loops';
+export type { Loop, LoopDiscovery, LoopMember, LoopBand } from './loops';
+export { returnRatios } from './returnRatio';
+export type { ReturnRatioSweep, ReturnRatioPoint } from './returnRatio';
+export { blackmanAt } from './blackman';
+export type { BlackmanNode, BlackmanResult } from './blackman';
+export { loopRegulation, regulationOf } from './regulation';
+export type { Regulation, HeldQuantity } from './regulation';
+export { compareOff } from './compare';
+export type { LoopComparison, PoleChange, NodeChange } from './compare';
+export { rootLocus } from './locus';
+export type { RootLocus, LocusBranch, LocusEvent } from './locus';
+export { loopMargins } from './margins';
+export type { LoopMargins } from './margins';
+export { findDoublets, boosterChecks } from './doublets';
+export type { Doublet, DoubletResult, BoosterCheck } from './doublets';
+export { stepResponse } from './step';
+export type { StepResponse, SettlingTime } from './step';
+export { poleSensitivity } from './sensitivity';
+export type { PoleSensitivity, ElementSensitivity } from './sensitivity';
+
+export const FEEDBACK_CAUTION =
+  'Loop gains, impedance factors and margins are linear small-signal estimates about the entered bias point.';
+
+export interface LoopReport {
+  loop: Omit<Loop, 'returnRatio'>;
+  regulation: Regulation;
+  margins: LoopMargins;
+}
+
+export interface FeedbackResult {
+  ok: boolean;
+  caution: string;
+  issues: EngineIssue[];
+  /** Source ids switched off for this result. */
+  off: string[];
+  loops: LoopReport[];
+  truncated: boolean;
+  threshold: number;
+  groups: string[][];
+  notes: string[];
+  boosters: BoosterCheck[];
+  doublets: DoubletResult | null;
+  slowestPole: PoleSensitivity | null;
+}
+
+export interface FeedbackOptions extends LoopOptions {
+  /** Loop ids, source ids ("M1.gm") or part names to switch off (their key source's gain → 0). */
+  off?: string[];
+}
+
+/** Map loop ids / source ids / part names to source ids; unknown names become named issues. */
+export function resolveOff(sys: MnaSystem, names: string[], loops: Loop[] = []): { ids: string[]; issues: EngineIssue[] } {
+  const stamps = sourceStamps(sys);
+  const ids: string[] = [];
+  const issues: EngineIssue[] = [];
+  for (const name of names) {
+    const loop = loops.find((l) => l.id === name || l.label === name);
+    const direct = stamps.find((s) => s.id === name);
+    const ofPart = stamps.filter((s) => s.part === name);
+    const pref = ['A0', 'gain', 'gm'].map((r) => ofPart.find((s) => s.role === r)).find(Boolean) ?? ofPart[0];
+    const id = loop?.key ?? direct?.id ?? pref?.id;
+    if (!id) {
+      issues.push({ severity: 'error', code: 'unknown-part', field: 'off', part: name, message: `off: "${name}" is neither a loop nor a controlled source of this netlist (e.g. "A1", "M1.gm")` });
+      continue;
+    }
+    if (!ids.includes(id)) ids.push(id);
+  }
+  return { ids, issues };
+}
+
+export function analyzeFeedbackSystem(sys: MnaSystem, opts: FeedbackOptions = {}): FeedbackResult {
+  const scale: Record<string, number> = { ...(opts.scale ?? {}) };
+  const issues: EngineIssue[] = [];
+  let off: string[] = [];
+  if (opts.off?.length) {
+    const pre = discoverLoops(sys, { ...opts, scale });
+    const r = resolveOff(sys, opts.off, pre.loops);
+    issues.push(...r.issues);
+    off = r.ids;
+    for (const id of off) scale[id] = 0;
+  }
+  const d = discoverLoops(sys, { ...opts, scale });
+  const loops: LoopReport[] = d.loops.map((loop) => {
+    const { returnRatio: _sweep, ...rest } = loop;
+    void _sweep;
+    return { loop: rest, regulation: loopRegulation(sys, loop, { scale }), margins: loopMargins(sys, loop.key, { scale }) };
+  });
+  const hasTransfer = sys.b.some((v) => v !== 0) && sys.c.some((v) => v !== 0);
+  const result: FeedbackResult = {
+    ok: !issues.some((i) => i.severity === 'error'),
+    caution: FEEDBACK_CAUTION,
+    issues,
+    off,
+    loops,
+    truncated: d.truncated,
+    threshold: d.threshold,
+    groups: d.groups,
+    notes: d.notes,
+    boosters: hasTransfer ? boosterChecks(sys, d.loops, { scale }) : [],
+    doublets: hasTransfer ? findDoublets(sys, { scale }) : null,
+    slowestPole: poleSensitivity(scaleSystem(sys, scale)),
+  };
+  return jsonSafe(result);
+}
+
+/** Build the netlist (validation, structure check) and analyse its feedback. */
+export function analyzeFeedback(netlist: Netlist, opts: FeedbackOptions = {}): FeedbackResult {
+  const built = buildMna(netlist);
+  if (!built.system) {
+    return { ok: false, caution: FEEDBACK_CAUTION, issues: built.issues, off: [], loops: [], truncated: false, threshold: opts.threshold ?? 0.01, groups: [], notes: [], boosters: [], doublets: null, slowestPole: null };
+  }
+  const r = analyzeFeedbackSystem(built.system, opts);
+  return { ...r, issues: [...built.issues.filter((i) => i.severity !== 'error'), ...r.issues] };
+}
+
+function scaleSystem(sys: MnaSystem, scale: Record<string, number>): MnaSystem {
+  if (!Object.keys(scale).length) return sys;
+  const elements = sys.elements.map((e) => {
+    const k = (e.type === 'vccs' || e.type === 'vcvs') ? scale[e.id] : undefined;
+    if (k === undefined) return e;
+    return e.type === 'vccs' ? { ...e, gm: e.gm * k } : e.type === 'vcvs' ? { ...e, gain: e.gain * k } : e;
+  });
+  const G = scaledG(sys, sourceStamps(sys), scale);
+  return { ...sys, G, elements };
+}
+
+/** Replace non-finite numbers by null so the result is JSON-safe (no NaN / Infinity). */
+function jsonSafe<T>(v: T): T {
+  const walk = (x: unknown): unknown => {
+    if (typeof x === 'number') return Number.isFinite(x) ? x : null;
+    if (Array.isArray(x)) return x.map(walk);
+    if (x instanceof Float64Array || x instanceof Int32Array) return Array.from(x as ArrayLike<number>, (y) => (Number.isFinite(y) ? y : null));
+    if (x && typeof x === 'object') {
+      const o: Record<string, unknown> = {};
+      for (const [k, val] of Object.entries(x)) o[k] = walk(val);
+      return o;
+    }
+    return x;
+  };
+  return walk(v) as T;
+}
