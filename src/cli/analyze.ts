@@ -4,6 +4,7 @@
 
 import { readFileSync } from 'node:fs';
 import { analyze, formatSi, SMALL_SIGNAL_CAUTION, type AnalysisResult, type AnalyzeOptions, type Netlist } from '../engine/index';
+import { feedbackReport, takeFeedbackArgs, FEEDBACK_USAGE } from '../engine/feedback/cli';
 
 interface CliArgs { file?: string; json: boolean; input?: string; output?: string; problems: string[] }
 
@@ -92,10 +93,11 @@ function printText(file: string, title: string | undefined, r: AnalysisResult, o
 }
 
 export async function main(argv: string[], out: (s: string) => void = console.log, err: (s: string) => void = console.error): Promise<number> {
-  const args = parseArgs(argv);
+  const fb = takeFeedbackArgs(argv);
+  const args = parseArgs(fb.rest);
   if (args.problems.length) {
     for (const p of args.problems) err(`analyze: ${p}`);
-    err('usage: npm run analyze -- <file.json> [--json] [--in SRC --out NODE]');
+    err(`usage: npm run analyze -- <file.json> [--json] [--in SRC --out NODE] ${FEEDBACK_USAGE}`);
     return 1;
   }
   const file = args.file!;
@@ -117,8 +119,11 @@ export async function main(argv: string[], out: (s: string) => void = console.lo
   if (args.output) opts.output = { kind: 'voltage', node: args.output };
   const r = analyze(doc.netlist, opts);
   const errors = r.issues.filter((i) => i.severity === 'error');
-  if (args.json) out(JSON.stringify({ file, title: doc.netlist.title ?? null, ...r }, null, 1));
-  else if (r.ok) printText(file, doc.netlist.title, r, out);
+  const rep = fb.args && r.ok ? feedbackReport(doc.netlist, fb.args, opts) : null;
+  if (args.json) out(JSON.stringify({ file, title: doc.netlist.title ?? null, ...r, ...(rep ? { feedback: rep.json } : {}) }, null, 1));
+  else if (r.ok) { printText(file, doc.netlist.title, r, out); for (const l of rep?.lines ?? []) out(l); }
+  for (const e of rep?.errors ?? []) err(`${file}: error: ${e}`);
+  if (rep?.errors.length) return 1;
   if (errors.length) {
     for (const e of errors) err(`${file}: error: ${e.message}`);
     return 1;
