@@ -129,12 +129,21 @@ export function computeConnectivity(doc: DrawingDocument): Connectivity {
     });
   }
 
-  // T-junctions: any vertex or pin on the inside of a segment of another wire.
+  // T-junctions: any vertex or pin on the inside of a segment of another wire. Segments are
+  // indexed by their line (horizontal by y, vertical by x) so each point checks only its lines.
+  const horizontal = new Map<number, Segment[]>();
+  const vertical = new Map<number, Segment[]>();
+  for (const s of segments) {
+    const [map, key] = s.a.y === s.b.y ? [horizontal, s.a.y] : [vertical, s.a.x];
+    const list = map.get(key) ?? [];
+    list.push(s);
+    map.set(key, list);
+  }
   const touchers: { p: Point; wire?: WireId }[] = [...pins.map((p) => ({ p: { x: p.x, y: p.y } }))];
   for (const w of wires) for (const p of w.points) touchers.push({ p, wire: w.id });
   const seen = new Set<string>();
   for (const t of touchers) {
-    for (const s of segments) {
+    for (const s of [...(horizontal.get(t.p.y) ?? []), ...(vertical.get(t.p.x) ?? [])]) {
       if (s.wire === t.wire || !onSegmentInterior(t.p, s)) continue;
       uf.union(nodeAt(t.p), wireNode.get(s.wire)!);
       const k = `${pointKey(t.p)}|${s.wire}|${s.a.x},${s.a.y}`;

@@ -117,11 +117,13 @@ export function checkDrawing(doc: DrawingDocument, conn: Connectivity): DrawingI
     adj.get(b)!.add(a);
   };
   let hasEngineParts = false;
+  const pinsOfPart = new Map<PartId, string[]>();
+  for (const q of conn.pins) pinsOfPart.set(q.part, [...(pinsOfPart.get(q.part) ?? []), q.name]);
   for (const p of parts) {
     const sym = symbolOf(p.kind);
     if (!sym.engine) continue;
     hasEngineParts = true;
-    const nets = conn.pins.filter((q) => q.part === p.id).map((q) => conn.netOfPin[pinKey({ part: p.id, pin: q.name })]);
+    const nets = (pinsOfPart.get(p.id) ?? []).map((name) => conn.netOfPin[pinKey({ part: p.id, pin: name })]);
     if (sym.role === 'input') nets.push(GROUND_NET);
     for (let i = 1; i < nets.length; i++) link(nets[0], nets[i]);
     if (nets.length === 1) link(nets[0], nets[0]);

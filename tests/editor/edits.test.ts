@@ -70,3 +70,23 @@ describe('more editing', () => {
     expect(isOrthogonal(e.document.wires['wire:a'].points)).toBe(true);
   });
 });
+
+describe('whole-drawing transforms keep every connection (geometric invariance, from memory)', () => {
+  it('turn, flip and move each example drawing without changing its netlist', async () => {
+    const { EXAMPLE_DRAWINGS } = await import('../../src/examples/index');
+    const { documentToNetlist } = await import('../../src/schematic/toNetlist');
+    for (const ex of EXAMPLE_DRAWINGS) {
+      const e = createEditor(ex.load());
+      const want = documentToNetlist(e.document).netlist;
+      expect(want, ex.id).toBeDefined();
+      const d = drive(e).key('a', { ctrl: true });
+      for (const k of ['t', 'f', 'ArrowDown', 't', 't', 'f', 'ArrowLeft', 't']) {
+        d.key(k);
+        const r = documentToNetlist(e.document);
+        expect(r.issues, `${ex.id} after ${k}`).toEqual([]);
+        expect(r.netlist, `${ex.id} after ${k}`).toEqual(want);
+        for (const w of Object.values(e.document.wires)) expect(isOrthogonal(w.points)).toBe(true);
+      }
+    }
+  });
+});
