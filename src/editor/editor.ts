@@ -200,13 +200,14 @@ export function createEditor(initial?: DrawingDocument, opts: { host?: EditorHos
         if (state.mode === 'wire.drawing' && ['Enter', 'Escape', 'Backspace'].includes(ev.key)) return handlePointer(ctx, ev);
         const cmd = commandForKey(ev);
         if (!cmd) return handlePointer(ctx, ev);
-        if (cmd.enabled(actions)) cmd.run(actions);
+        if (!cmd.enabled(actions)) return false; // let the browser have keys we do not use now
+        cmd.run(actions);
         return true;
       }
       case 'command': {
         const cmd = COMMANDS_BY_ID.get(ev.id);
-        if (!cmd) return false;
-        if (cmd.enabled(actions)) cmd.run(actions);
+        if (!cmd || !cmd.enabled(actions)) return false;
+        cmd.run(actions);
         return true;
       }
       case 'tool':
