@@ -7,10 +7,11 @@ import { discoverLoops } from './loops';
 import type { Loop, LoopOptions } from './loops';
 import { loopRegulation } from './regulation';
 import type { Regulation } from './regulation';
-import { loopMargins } from './margins';
+import { loopMarginsMany } from './margins';
 import type { LoopMargins } from './margins';
 import { boosterChecks, findDoublets } from './doublets';
 import type { BoosterCheck, DoubletResult } from './doublets';
+import type { BlackmanResult } from './blackman';
 import { poleSensitivity } from './sensitivity';
 import type { PoleSensitivity } from './sensitivity';
 import { scaledG, sourceStamps } from './pencil';
@@ -27,7 +28,7 @@ export { compareOff } from './compare';
 export type { LoopComparison, PoleChange, NodeChange } from './compare';
 export { rootLocus } from './locus';
 export type { RootLocus, LocusBranch, LocusEvent } from './locus';
-export { loopMargins } from './margins';
+export { loopMargins, loopMarginsMany } from './margins';
 export type { LoopMargins } from './margins';
 export { findDoublets, boosterChecks } from './doublets';
 export type { Doublet, DoubletResult, BoosterCheck } from './doublets';
@@ -98,10 +99,13 @@ export function analyzeFeedbackSystem(sys: MnaSystem, opts: FeedbackOptions = {}
     for (const id of off) scale[id] = 0;
   }
   const d = discoverLoops(sys, { ...opts, scale });
+  const keys = [...new Set(d.loops.map((l) => l.key))];
+  const margins = new Map(loopMarginsMany(sys, keys, { scale }).map((m) => [m.key, m]));
+  const cache = new Map<string, BlackmanResult>();
   const loops: LoopReport[] = d.loops.map((loop) => {
     const { returnRatio: _sweep, ...rest } = loop;
     void _sweep;
-    return { loop: rest, regulation: loopRegulation(sys, loop, { scale }), margins: loopMargins(sys, loop.key, { scale }) };
+    return { loop: rest, regulation: loopRegulation(sys, loop, { scale, cache }), margins: margins.get(loop.key)! };
   });
   const hasTransfer = sys.b.some((v) => v !== 0) && sys.c.some((v) => v !== 0);
   const result: FeedbackResult = {

@@ -5,6 +5,7 @@
 import type { Cx, MnaSystem } from '../types';
 import { scaledG, sourceStamps, logSpace } from './pencil';
 import { returnRatiosAt, scaleStamp } from './returnRatio';
+import type { ReturnRatioPoint } from './returnRatio';
 import { cabs, carg } from './cx';
 
 export interface LoopMargins {
@@ -28,20 +29,40 @@ export interface MarginOptions {
 const DEG = 180 / Math.PI;
 
 export function loopMargins(sys: MnaSystem, key: string, opts: MarginOptions = {}): LoopMargins {
-  const empty = { key, dc: null, unityGainHz: null, phaseMarginDeg: null, phaseCrossHz: null, gainMarginDb: null };
+  return loopMarginsMany(sys, [key], opts)[0];
+}
+
+/** Margins of several loops' keys; the frequency grid shares one factor per frequency. */
+export function loopMarginsMany(sys: MnaSystem, keys: string[], opts: MarginOptions = {}): LoopMargins[] {
   const stamps = sourceStamps(sys);
-  const raw = stamps.find((s) => s.id === key);
-  if (!raw) return { ...empty, status: 'unknown-source', message: `no controlled source "${key}" in this network` };
   const G = scaledG(sys, stamps, opts.scale ?? {});
-  const s = scaleStamp(raw, opts.scale?.[key]);
-  const at = (f: number) => returnRatiosAt(sys, G, [s], 2 * Math.PI * f)[0];
-  const dcPoint = at(0);
+  const found = keys.map((key) => stamps.find((s) => s.id === key)).map((raw) => (raw ? scaleStamp(raw, opts.scale?.[raw.id]) : null));
+  const live = found.filter((s): s is NonNullable<typeof s> => s !== null);
+  const grid = logSpace(opts.fMin ?? 1, opts.fMax ?? 1e12, opts.perDecade ?? 10);
+  const dcAll = returnRatiosAt(sys, G, live, 0);
+  const gridAll = grid.map((f) => returnRatiosAt(sys, G, live, 2 * Math.PI * f));
+  let li = 0;
+  return keys.map((key, k) => {
+    const s = found[k];
+    if (!s) return { ...emptyMargins(key), status: 'unknown-source' as const, message: `no controlled source "${key}" in this network` };
+    const i = li++;
+    const at = (f: number) => returnRatiosAt(sys, G, [s], 2 * Math.PI * f)[0];
+    return marginsFrom(key, dcAll[i], grid, gridAll.map((row) => row[i]), at);
+  });
+}
+
+function emptyMargins(key: string) {
+  return { key, dc: null, unityGainHz: null, phaseMarginDeg: null, phaseCrossHz: null, gainMarginDb: null };
+}
+
+function marginsFrom(
+  key: string, dcPoint: ReturnRatioPoint, grid: number[], points: ReturnRatioPoint[], at: (f: number) => ReturnRatioPoint,
+): LoopMargins {
+  const empty = emptyMargins(key);
   if (!dcPoint.value) return { ...empty, status: 'not-computable', message: `${key}: return ratio at DC could not be computed (${dcPoint.status})` };
-  const grid = logSpace(opts.fMin ?? 1, opts.fMax ?? 1e12, opts.perDecade ?? 20);
   const values: Cx[] = [];
-  for (const f of grid) {
-    const p = at(f);
-    if (!p.value) return { ...empty, dc: dcPoint.value, status: 'not-computable', message: `${key}: return ratio not computable at ${f.toPrecision(3)} Hz (${p.status})` };
+  for (const [gi, p] of points.entries()) {
+    if (!p.value) return { ...empty, dc: dcPoint.value, status: 'not-computable', message: `${key}: return ratio not computable at ${grid[gi].toPrecision(3)} Hz (${p.status})` };
     values.push(p.value);
   }
   // unwrapped phase, starting from the DC phase (0 for negative feedback)
@@ -87,15 +108,28 @@ function unwrapNear(a: number, ref: number): number {
   return a;
 }
 
-/** Root of g between f1 and f2 (g(f1) ≥ 0 > g(f2) or the reverse), bisection on log f. */
+/** Root of g between f1 and f2 (opposite signs at the ends), on log f: false position with the
+ *  Illinois modification (Dowell & Jarratt 1971), which keeps bracketing and converges superlinearly. */
 export function bisectLog(f1: number, f2: number, g: (f: number) => number, iterations = 60): number {
-  let lo = Math.log(f1), hi = Math.log(f2);
-  const gLo = g(f1);
-  for (let k = 0; k < iterations; k++) {
-    const mid = 0.5 * (lo + hi);
-    const gm = g(Math.exp(mid));
-    if ((gm >= 0) === (gLo >= 0)) lo = mid; else hi = mid;
-    if (hi - lo < 1e-12) break;
+  let a = Math.log(f1), b = Math.log(f2);
+  let ga = g(f1), gb = g(f2);
+  if (ga === 0) return f1;
+  if (gb === 0) return f2;
+  let side = 0;
+  for (let k = 0; k < iterations && Math.abs(b - a) > 1e-12; k++) {
+    const c = (a * gb - b * ga) / (gb - ga);
+    const gc = g(Math.exp(c));
+    if (gc === 0 || !Number.isFinite(gc)) return Math.exp(c);
+    if ((gc > 0) === (gb > 0)) {
+      b = c; gb = gc;
+      if (side === -1) ga /= 2;
+      side = -1;
+    } else {
+      a = c; ga = gc;
+      if (side === 1) gb /= 2;
+      side = 1;
+    }
+    if (Math.abs(gc) < 1e-13) break;
   }
-  return Math.exp(0.5 * (lo + hi));
+  return Math.exp((a * gb - b * ga) / (gb - ga));
 }

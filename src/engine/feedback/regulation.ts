@@ -4,7 +4,7 @@
 // else where its gain peaks).
 import type { MnaSystem } from '../types';
 import { blackmanAt } from './blackman';
-import type { BlackmanNode } from './blackman';
+import type { BlackmanNode, BlackmanResult } from './blackman';
 import type { Loop } from './loops';
 import { cabs } from './cx';
 import { sourceStamps, nodeLabel } from './pencil';
@@ -36,7 +36,10 @@ export interface Regulation {
 
 /** At DC first (the textbook figures: Rout raised, a node held); when the loop changes nothing
  *  there (e.g. closed only through a capacitor), at the frequency where its cycle gain peaks. */
-export function loopRegulation(sys: MnaSystem, loop: Loop, opts: { scale?: Record<string, number>; fHz?: number } = {}): Regulation {
+export function loopRegulation(
+  sys: MnaSystem, loop: Loop,
+  opts: { scale?: Record<string, number>; fHz?: number; cache?: Map<string, BlackmanResult> } = {},
+): Regulation {
   const common = { ...opts, loopId: loop.id, preferNets: loop.nets };
   if (opts.fHz !== undefined) return regulationOf(sys, loop.key, common);
   const dc = regulationOf(sys, loop.key, { ...common, fHz: 0 });
@@ -47,10 +50,13 @@ export function loopRegulation(sys: MnaSystem, loop: Loop, opts: { scale?: Recor
 
 export function regulationOf(
   sys: MnaSystem, key: string,
-  opts: { scale?: Record<string, number>; fHz?: number; loopId?: string; preferNets?: string[] } = {},
+  opts: { scale?: Record<string, number>; fHz?: number; loopId?: string; preferNets?: string[]; cache?: Map<string, BlackmanResult> } = {},
 ): Regulation {
   const atHz = opts.fHz ?? 0;
-  const b = blackmanAt(sys, key, { fHz: atHz, scale: opts.scale });
+  // the factors depend only on the key and the frequency; loops sharing a key share them
+  const memo = `${key}@${atHz}`;
+  const b = opts.cache?.get(memo) ?? blackmanAt(sys, key, { fHz: atHz, scale: opts.scale });
+  opts.cache?.set(memo, b);
   const base = { loopId: opts.loopId ?? key, key, atHz, status: b.status, message: b.message, nodes: b.nodes };
   if (b.status !== 'ok') return { ...base, holdsVoltage: null, holdsCurrent: null, summary: b.message ?? '' };
   const stamp = sourceStamps(sys).find((s) => s.id === key)!;

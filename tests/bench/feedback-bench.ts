@@ -1,0 +1,63 @@
+// Benchmark of the feedback engine on an invented ~60-unknown stage with many loops: a chain of
+// gain-boosted cascode stages (each: input device, cascode, booster amplifier macro, load, caps)
+// with an overall resistive feedback. Prints times and ratios against one analyze() of the same
+// netlist; asserts nothing (no test may assert wall-clock time).
+import { analyze, buildMna, type Netlist } from '../../src/engine/index';
+import { analyzeFeedbackSystem, discoverLoops, compareOff, rootLocus, returnRatios } from '../../src/engine/feedback/index';
+import { logSpace } from '../../src/engine/feedback/pencil';
+
+/** `stages` boosted cascode stages: 5 nodes each (x, out, g2, booster internal, source) + in + 1 branch. */
+export function boostedChain(stages: number): Netlist {
+  const parts: Netlist['parts'] = [
+    { name: 'Vin', kind: 'vsource', pins: { p: 'in', n: '0' }, values: {} },
+    { name: 'Rin', kind: 'resistor', pins: { p: 'in', n: 'o0' }, values: { value: '5k' } },
+  ];
+  for (let k = 1; k <= stages; k++) {
+    const gIn = `o${k - 1}`, x = `x${k}`, out = `o${k}`, g2 = `g${k}`, s = `s${k}`;
+    parts.push(
+      { name: `M${k}a`, kind: 'nmos', pins: { d: x, g: gIn, s }, values: { gm: `${1 + (k % 3) * 0.2}m`, ro: '80k', cgs: '40f', cgd: '8f' } },
+      { name: `Rs${k}`, kind: 'resistor', pins: { p: s, n: '0' }, values: { value: '200' } },
+      { name: `M${k}b`, kind: 'nmos', pins: { d: out, g: g2, s: x }, values: { gm: '1.5m', ro: '80k', cgs: '30f' } },
+      { name: `A${k}`, kind: 'amplifier', pins: { out: g2, inp: '0', inn: x }, values: { A0: '40', p1: `${8 + k}M`, rout: '5k' } },
+      { name: `RL${k}`, kind: 'resistor', pins: { p: out, n: '0' }, values: { value: '400k' } },
+      { name: `CL${k}`, kind: 'capacitor', pins: { p: out, n: '0' }, values: { value: '60f' } },
+    );
+  }
+  parts.push({ name: 'Rfb', kind: 'resistor', pins: { p: `o${stages}`, n: 'o0' }, values: { value: '2M' } });
+  return { format: 'polesketch-netlist', version: 1, title: 'boosted chain (invented)', parts, input: 'Vin', output: { kind: 'voltage', node: `o${stages}` } };
+}
+
+function median(xs: number[]): number {
+  const s = [...xs].sort((a, b) => a - b);
+  return s[Math.floor(s.length / 2)];
+}
+
+function time(fn: () => unknown, runs = 3): number {
+  fn();
+  const ts: number[] = [];
+  for (let i = 0; i < runs; i++) { const t0 = performance.now(); fn(); ts.push(performance.now() - t0); }
+  return median(ts);
+}
+
+export function runFeedbackBench(): void {
+  const nl = boostedChain(12);
+  const sys = buildMna(nl).system!;
+  const d = discoverLoops(sys);
+  console.log(`stage: ${sys.n} unknowns, ${d.graph.stamps.length} controlled sources, ${d.loops.length} loops${d.truncated ? ' (cut)' : ''}`);
+  const tAnalyze = time(() => analyze(nl));
+  const tRr = time(() => returnRatios(sys, { freqsHz: logSpace(1, 1e11, 5) }));
+  const tLoops = time(() => discoverLoops(sys));
+  const tAll = time(() => analyzeFeedbackSystem(sys), 1);
+  const tOff = time(() => compareOff(sys, [d.loops[0].key]), 1);
+  const tLocus = time(() => rootLocus(sys, d.loops[0].key), 1);
+  const row = (name: string, ms: number) => console.log(`  ${name.padEnd(44)} ${ms.toFixed(1).padStart(9)} ms   ×${(ms / tAnalyze).toFixed(2)} of analyze()`);
+  row('analyze() (poles, zeros, sweep, nodes)', tAnalyze);
+  row('return ratios of all sources, DC + 56 freqs', tRr);
+  row('loop discovery (coupling graph, cycles)', tLoops);
+  row('full feedback analysis (loops+regulation+…)', tAll);
+  row('one loop off, A/B comparison', tOff);
+  row('root locus of the first loop, k = 0…10', tLocus);
+}
+
+const invokedDirectly = typeof process !== 'undefined' && /feedback-bench\.[cm]?[tj]s$/.test(process.argv[1] ?? '');
+if (invokedDirectly) runFeedbackBench();
