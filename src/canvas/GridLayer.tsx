@@ -25,8 +25,8 @@ function GridLayerView({ camera, width, height }: Props) {
     const y0 = Math.floor(view.y / GRID) * GRID;
     const x1 = view.x + view.width;
     const y1 = view.y + view.height;
-    const dot = 1.1 / camera.scale;
-    c.fillStyle = '#cfcabd';
+    const dot = 1.5 / camera.scale;
+    c.fillStyle = '#d3cec2';
     if (showMinor) {
       for (let x = x0; x <= x1; x += GRID) {
         for (let y = y0; y <= y1; y += GRID) c.fillRect(x - dot / 2, y - dot / 2, dot, dot);

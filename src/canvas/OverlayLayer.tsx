@@ -24,7 +24,7 @@ export const ISSUE_TAG: Record<DrawingIssue['code'], string> = {
   'several-outputs': 'several outputs',
 };
 
-const IssueMark = memo(function IssueMark({ issue, scale }: { issue: DrawingIssue; scale: number }) {
+const IssueMark = memo(function IssueMark({ issue, scale, stack }: { issue: DrawingIssue; scale: number; stack: number }) {
   const color = issue.severity === 'error' ? ERROR : WARN;
   // Marks keep a constant size on screen.
   const k = 1 / Math.max(scale, 0.3);
@@ -32,7 +32,7 @@ const IssueMark = memo(function IssueMark({ issue, scale }: { issue: DrawingIssu
   const tag = ISSUE_TAG[issue.code] ?? issue.code;
   const font = 10 * k;
   return (
-    <Group x={issue.x} y={issue.y} listening={false}>
+    <Group x={issue.x} y={issue.y + stack * 14 * k} listening={false}>
       <Circle radius={r} stroke={color} strokeWidth={1.6 * k} fill="rgba(255,255,255,0.85)" perfectDrawEnabled={false} />
       <Line points={[0, -r * 0.5, 0, r * 0.15]} stroke={color} strokeWidth={1.6 * k} lineCap="round" />
       <Circle y={r * 0.5} radius={0.9 * k} fill={color} />
@@ -41,6 +41,17 @@ const IssueMark = memo(function IssueMark({ issue, scale }: { issue: DrawingIssu
     </Group>
   );
 });
+
+/** Several problems at one point are listed one under the other instead of on top of each other. */
+export function stackMarks(issues: DrawingIssue[]): { issue: DrawingIssue; stack: number }[] {
+  const seen = new Map<string, number>();
+  return issues.map((issue) => {
+    const key = `${issue.x},${issue.y}`;
+    const stack = seen.get(key) ?? 0;
+    seen.set(key, stack + 1);
+    return { issue, stack };
+  });
+}
 
 interface Props {
   junctions: Point[];
@@ -55,7 +66,9 @@ function OverlayLayerView({ junctions, issues, scale, showIssues }: Props) {
       {junctions.map((j) => (
         <Circle key={`${j.x},${j.y}`} x={j.x} y={j.y} radius={JUNCTION_RADIUS} fill={WIRE} perfectDrawEnabled={false} listening={false} />
       ))}
-      {showIssues && issues.map((iss, i) => <IssueMark key={`${iss.code}:${iss.part ?? iss.wire ?? iss.net ?? ''}:${iss.pin ?? ''}:${i}`} issue={iss} scale={scale} />)}
+      {showIssues && stackMarks(issues).map(({ issue, stack }, i) => (
+        <IssueMark key={`${issue.code}:${issue.part ?? issue.wire ?? issue.net ?? ''}:${issue.pin ?? ''}:${i}`} issue={issue} scale={scale} stack={stack} />
+      ))}
     </Layer>
   );
 }

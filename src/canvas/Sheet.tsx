@@ -50,7 +50,7 @@ export function Sheet({ camera, onEvent, onSize, onPartDragOver, onPartDrop, onF
     return () => ro.disconnect();
   }, []);
 
-  useEffect(() => onSize?.(size), [size, onSize]);
+  useEffect(() => { onSize?.(size); }, [size, onSize]);
 
   const local = (clientX: number, clientY: number): Point => {
     const r = box.current?.getBoundingClientRect();

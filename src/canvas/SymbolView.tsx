@@ -34,6 +34,20 @@ export function orientAlign(align: TextAlign, anchor: Point, rotation: Rotation,
   return wx > 0 ? 'start' : 'end';
 }
 
+/** Upright text written inside a body (a net label's name) cannot fit once the body stands
+ *  vertical; it then goes just past the body's far end, centred, above or below it. */
+export function textBeyondTurnedBody(
+  symbol: SymbolDef, anchor: Point, rotation: Rotation, mirror: boolean, size: number,
+): { local: Point; dy: number } | null {
+  if (rotation !== 90 && rotation !== 270) return null;
+  const b = symbol.bounds;
+  const inside = anchor.x > b.x && anchor.x < b.x + b.width && anchor.y > b.y && anchor.y < b.y + b.height;
+  if (!inside) return null;
+  const local = { x: b.x + b.width + 2, y: 0 };
+  const down = orient({ x: 1, y: 0 }, rotation, mirror).y > 0;
+  return { local, dy: down ? size * 0.75 : -size * 0.75 };
+}
+
 const TEXT_BOX = 120;
 /** Konva Text with an anchor at (x, y): y is the vertical middle, align picks the horizontal end. */
 export function AnchoredText(props: {
@@ -97,6 +111,11 @@ function SymbolViewInner(props: Props) {
     return { x: o.x + x, y: o.y + y };
   };
   const anchored = (anchor: SymbolDef['labelAnchor'], text: string, size: number, bold: boolean, c: string) => {
+    const moved = textBeyondTurnedBody(symbol, anchor, rotation, mirror, size);
+    if (moved) {
+      const w = at(moved.local);
+      return <AnchoredText x={w.x} y={w.y + moved.dy} text={text} size={size} align="middle" color={c} bold={bold} />;
+    }
     const w = at(anchor);
     return <AnchoredText x={w.x} y={w.y} text={text} size={size} align={orientAlign(anchor.align, anchor, rotation, mirror)} color={c} bold={bold} />;
   };

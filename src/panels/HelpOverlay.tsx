@@ -20,25 +20,27 @@ export function HelpOverlay({ onClose }: { onClose: () => void }) {
         onKeyDown={(e) => { if (e.key === 'Escape' || e.key === '?') { e.preventDefault(); e.stopPropagation(); onClose(); } }}
       >
         <h2>Keyboard shortcuts</h2>
-        <table>
-          <tbody>
-            {ORDER.flatMap((g) => {
-              const list = rows.filter((r) => r.group === g);
-              if (list.length === 0) return [];
-              return [
-                <tr key={`h-${g}`}><td colSpan={2}><strong>{g}</strong></td></tr>,
-                ...list.map((r) => (
-                  <tr key={`${g}-${r.label}`}>
-                    <td>{r.label}</td>
-                    <td>{r.keys.map((k, i) => <span key={k}>{i > 0 ? ' or ' : ''}<kbd>{k}</kbd></span>)}</td>
-                  </tr>
-                )),
-              ];
-            })}
-          </tbody>
-        </table>
+        <div className="help-groups">
+          {ORDER.map((g) => {
+            const list = rows.filter((r) => r.group === g);
+            if (list.length === 0) return null;
+            return (
+              <table key={g}>
+                <caption>{g}</caption>
+                <tbody>
+                  {list.map((r) => (
+                    <tr key={r.label}>
+                      <td>{r.label}</td>
+                      <td className="keys">{r.keys.map((k, i) => <span key={k}>{i > 0 ? ' ' : ''}<kbd>{k}</kbd></span>)}</td>
+                    </tr>
+                  ))}
+                </tbody>
+              </table>
+            );
+          })}
+        </div>
         <p className="help-foot">
-          Mouse: wheel zooms about the pointer; drag with the middle button, or with Space held, to pan.
+          Mouse: wheel zooms about the pointer; drag with the middle button, or with Alt held, to pan.
           Shift-click adds to or removes from the selection; drag on empty space for a selection box.
         </p>
         <button type="button" className="tb-btn" onClick={onClose}>Close</button>

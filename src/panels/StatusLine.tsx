@@ -3,7 +3,7 @@
 import type { Point } from '../schematic/document';
 
 export const ESTIMATE_NOTE =
-  'All figures are linear small-signal estimates about the bias point you entered; check the design with full circuit simulation and the foundry models before sign-off.';
+  'Linear small-signal estimates about the entered bias point: confirm with full simulation and the foundry models before sign-off.';
 
 const MODE_TEXT: Record<string, string> = {
   'select.idle': 'Select',
@@ -34,7 +34,7 @@ export function StatusLine({ mode, cursor, selected, errors, warnings, notice, n
       {selected > 0 && <span>{selected} selected</span>}
       <span>{errors} error{errors === 1 ? '' : 's'}, {warnings} warning{warnings === 1 ? '' : 's'}</span>
       {notice && <span className={`flash${noticeIsError ? ' error' : ''}`}>{notice}</span>}
-      <span className="caveat">{ESTIMATE_NOTE}</span>
+      <span className="caveat" title={ESTIMATE_NOTE}>{ESTIMATE_NOTE}</span>
     </footer>
   );
 }

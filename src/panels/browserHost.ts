@@ -6,7 +6,9 @@ import type { Editor } from '../editor/types';
 import { emptyDocument, type DrawingDocument } from '../schematic/document';
 import { autosave, loadDrawing, restoreAutosave, saveDrawing } from '../schematic/file';
 
-export const CLIPBOARD_KEY = 'polesketch.clipboard';
+import { CLIP_STORAGE_KEY } from '../editor/clipboard';
+
+export const CLIPBOARD_KEY = CLIP_STORAGE_KEY;
 const AUTOSAVE_DELAY_MS = 400;
 
 export interface Banner {
@@ -35,6 +37,17 @@ export interface BrowserHost {
 export function fileNameFor(doc: DrawingDocument): string {
   const base = (doc.title ?? '').trim().replace(/[^A-Za-z0-9._-]+/g, '-').replace(/^-+|-+$/g, '');
   return `${base || 'drawing'}.json`;
+}
+
+/** File text, with FileReader where Blob.text is missing (older engines, jsdom). */
+export function readFileText(file: Blob): Promise<string> {
+  if (typeof file.text === 'function') return file.text();
+  return new Promise((resolve, reject) => {
+    const r = new FileReader();
+    r.onload = () => resolve(String(r.result ?? ''));
+    r.onerror = () => reject(r.error ?? new Error('unreadable file'));
+    r.readAsText(file);
+  });
 }
 
 function download(name: string, text: string): void {
@@ -72,7 +85,7 @@ export function useBrowserHost({ editor, storage, examples, setBanner, onSaved }
   }, [editor, onSaved, say, setBanner]);
 
   const openFileObject = useCallback((file: File) => {
-    file.text().then((t) => openText(t, file.name), (e: Error) => setBanner({ kind: 'error', text: `${file.name} could not be read: ${e.message}` }));
+    readFileText(file).then((t) => openText(t, file.name), (e: Error) => setBanner({ kind: 'error', text: `${file.name} could not be read: ${e.message}` }));
   }, [openText, setBanner]);
 
   useEffect(() => {
