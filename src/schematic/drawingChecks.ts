@@ -20,9 +20,7 @@ export type DrawingIssueCode =
   | 'no-input'
   | 'no-output'
   | 'several-inputs'
-  | 'several-outputs'
-  /** The input was not a valid drawing at all (documentToNetlist on unchecked JSON). */
-  | 'bad-file';
+  | 'several-outputs';
 
 export interface DrawingIssue {
   severity: 'error' | 'warning';

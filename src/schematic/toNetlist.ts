@@ -28,11 +28,11 @@ export function isDrawing(json: unknown): boolean {
 }
 
 /** Accepts a document or unchecked JSON (e.g. a file read by the CLI): it is validated (and
- *  migrated) first, so a broken input gives a 'bad-file' issue, never a crash. */
+ *  migrated) first, so a broken input gives one 'bad-value' issue with field 'file', never a crash. */
 export function documentToNetlist(source: DrawingDocument | unknown): DrawingNetlist {
   const loaded = loadDrawing(source);
   if (!loaded.ok) {
-    return { issues: [{ severity: 'error', code: 'bad-file', message: loaded.reason, x: 0, y: 0 }], netOfPin: {}, nets: [], junctions: [] };
+    return { issues: [{ severity: 'error', code: 'bad-value', field: 'file', message: loaded.reason, x: 0, y: 0 }], netOfPin: {}, nets: [], junctions: [] };
   }
   const doc = loaded.doc;
   const conn = computeConnectivity(doc);

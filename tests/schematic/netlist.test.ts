@@ -70,12 +70,12 @@ describe('capacitance overrides', () => {
 });
 
 describe('unchecked input', () => {
-  it('turns a broken drawing object into a bad-file issue instead of throwing', () => {
+  it('turns a broken drawing object into one file issue instead of throwing', () => {
     const r = documentToNetlist({ format: 'polesketch-drawing', version: 1, parts: { 'part:r1': { id: 'part:r1', kind: 'resistor' } }, wires: {} });
     expect(r.netlist).toBeUndefined();
     expect(r.issues).toHaveLength(1);
-    expect(r.issues[0]).toMatchObject({ code: 'bad-file', severity: 'error' });
+    expect(r.issues[0]).toMatchObject({ code: 'bad-value', field: 'file', severity: 'error' });
     expect(r.issues[0].message).toMatch(/Part part:r1: field "ref" must be a text/);
-    expect(documentToNetlist(null).issues[0].code).toBe('bad-file');
+    expect(documentToNetlist(null).issues[0]).toMatchObject({ code: 'bad-value', field: 'file' });
   });
 });
