@@ -4,10 +4,9 @@
 //   dλ = yᴴ(dA − λ·dB)x / (yᴴBx) = −yᴴ(dG + λ·dC)x / (yᴴCx)
 // (Wilkinson, The Algebraic Eigenvalue Problem, §2.8, for the generalized case). The normalized
 // figure is d ln λ / d ln v = (v/λ)·dλ/dv; its real part is d ln|λ| / d ln v. Resistors and output
-// resistances are reported against R = 1/g (sign flipped). The eigenvectors come from inverse
-// iteration on G + μC at a shift μ next to λ (complex LU of lu.ts).
+// resistances are reported against R = 1/g (sign flipped). Eigenvectors from linalg/eigvec.
 import type { Cx, Element, MnaSystem } from '../types';
-import { luComplex, solveComplex, solveComplexAdjoint } from '../linalg/lu';
+import { eigenvectorPair } from '../linalg/eigvec';
 import { computePoles } from '../analyses/poles';
 import { cabs, cdiv, cmul, cx } from './cx';
 
@@ -102,51 +101,12 @@ function elementTerm(el: Element, x: CVec, y: CVec, lambda: Cx, nodeCount: numbe
   }
 }
 
-/** Right and left eigenvectors of (G + λC) by inverse iteration at a shift next to λ. */
-export function eigenvectorsNear(sys: Pick<MnaSystem, 'n' | 'G' | 'C'>, lambda: Cx): { x: CVec; y: CVec; residual: number } | null {
+/** Right and left eigenvectors of pencil (−G, C) at λ (linalg/eigvec: inverse iteration). */
+function eigenvectorsNear(sys: Pick<MnaSystem, 'n' | 'G' | 'C'>, lambda: Cx): { x: CVec; y: CVec; residual: number } | null {
   const { n, G, C } = sys;
-  const mag = Math.max(cabs(lambda), 1e-300);
-  const mu = { re: lambda.re + 1e-9 * mag, im: lambda.im + 0.7e-9 * mag };
-  const Ar = new Float64Array(n * n), Ai = new Float64Array(n * n);
-  for (let i = 0; i < n * n; i++) { Ar[i] = G[i] + mu.re * C[i]; Ai[i] = mu.im * C[i]; }
-  const f = luComplex(Ar, Ai, n, 1e-18);
-  if (f.singularAt >= 0) return null;
-  const applyC = (v: CVec): [Float64Array, Float64Array] => {
-    const r = new Float64Array(n), im = new Float64Array(n);
-    for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) { const c = C[i * n + j]; if (c) { r[i] += c * v.re[j]; im[i] += c * v.im[j]; } }
-    return [r, im];
-  };
-  const applyCt = (v: CVec): [Float64Array, Float64Array] => {
-    const r = new Float64Array(n), im = new Float64Array(n);
-    for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) { const c = C[j * n + i]; if (c) { r[i] += c * v.re[j]; im[i] += c * v.im[j]; } }
-    return [r, im];
-  };
-  const normalize = (v: CVec) => {
-    let s = 0;
-    for (let i = 0; i < n; i++) s += v.re[i] ** 2 + v.im[i] ** 2;
-    const k = 1 / Math.sqrt(s || 1);
-    for (let i = 0; i < n; i++) { v.re[i] *= k; v.im[i] *= k; }
-    return v;
-  };
-  let x: CVec = normalize({ re: new Float64Array(n).fill(1), im: new Float64Array(n).map((_, i) => 0.1 * (i % 3)) });
-  let y: CVec = normalize({ re: new Float64Array(n).fill(1), im: new Float64Array(n).map((_, i) => 0.1 * ((i + 1) % 3)) });
-  for (let it = 0; it < 3; it++) {
-    const [xr, xi] = solveComplex(f, ...applyC(x));
-    x = normalize({ re: xr, im: xi });
-    const [yr, yi] = solveComplexAdjoint(f, ...applyCt(y));
-    y = normalize({ re: yr, im: yi });
-  }
-  // residual of the right vector at λ
-  let res = 0, gNorm = 0, cNorm = 0;
-  for (let i = 0; i < n * n; i++) { gNorm += G[i] * G[i]; cNorm += C[i] * C[i]; }
-  for (let i = 0; i < n; i++) {
-    let sr = 0, si = 0;
-    for (let j = 0; j < n; j++) {
-      const ar = G[i * n + j] + lambda.re * C[i * n + j], ai = lambda.im * C[i * n + j];
-      sr += ar * x.re[j] - ai * x.im[j];
-      si += ar * x.im[j] + ai * x.re[j];
-    }
-    res += sr * sr + si * si;
-  }
-  return { x, y, residual: Math.sqrt(res) / (Math.sqrt(gNorm) + mag * Math.sqrt(cNorm)) };
+  const A = new Float64Array(n * n);
+  for (let i = 0; i < n * n; i++) A[i] = -G[i];
+  const e = eigenvectorPair(A, C, n, lambda);
+  if (!Number.isFinite(e.residual)) return null;
+  return { x: { re: e.rightRe, im: e.rightIm }, y: { re: e.leftRe, im: e.leftIm }, residual: e.residual };
 }
