@@ -21,7 +21,7 @@ export interface SplaneView {
 
 const TWO_PI = 2 * Math.PI;
 /** Constant-Q rays drawn in both views: angle from the negative real axis is acos(1/(2Q)). */
-export const Q_RAYS = [0.707, 2];
+export const Q_RAYS = [Math.SQRT1_2, 2];
 
 /** Linear view with equal x/y scales fitted to the points (Hz). */
 export function linearView(area: Rect, pts: [number, number][]): SplaneView {
@@ -105,7 +105,7 @@ function qRays(ox: number, oy: number, len: number, labelAt: number): SceneItem[
       out.push({ kind: 'line', role: 'q-ray', clip: 'plane', x1: ox, y1: oy, x2: x, y2: y, style: LINES.reference });
     }
     const lx = ox - labelAt * Math.cos(a), ly = oy - labelAt * Math.sin(a);
-    out.push({ kind: 'text', role: 'q-label', clip: 'plane', x: lx, y: ly - 4, text: `Q ${q}`, anchor: 'end', baseline: 'auto', size: FONT_SIZE - 2, fill: PALETTE.inkSoft });
+    out.push({ kind: 'text', role: 'q-label', clip: 'plane', x: lx, y: ly - 4, text: `Q ${Number(q.toPrecision(2))}`, anchor: 'end', baseline: 'auto', size: FONT_SIZE - 2, fill: PALETTE.inkSoft });
   }
   return out;
 }
