@@ -10,6 +10,7 @@ import { factorDc } from './analyses/dc';
 import { computePoles, type Pole } from './analyses/poles';
 import { computeZeros, type Zero } from './analyses/zeros';
 import { dcTransfer, transferEvaluator } from './analyses/transfer';
+import { shiftedReduction } from './analyses/hessenberg';
 import { findBandwidth, findUnityGain, logGrid, sweepTransfer, type Sweep } from './analyses/frequency';
 import { dcImpedances, impedancesAtHz } from './analyses/impedance';
 import { nodeTimeConstants, openCircuitTimeConstants, type OctcResult } from './analyses/octc';
@@ -150,8 +151,10 @@ export function runAnalyses(sys: MnaSystem, issues: EngineIssue[], conditions: A
   const range = chooseSweep(opts.sweep, poles.poles, zeros.zeros);
   conditions.sweep = range;
   const transferDefined = dcT.status !== 'no-input' && dcT.status !== 'no-output';
+  // One shifted Hessenberg reduction serves the sweep and the pole vectors.
+  const reduction = shiftedReduction(sys.G, sys.C, sys.n);
   if (transferDefined) {
-    const ev = transferEvaluator(sys, Math.sqrt(range.fMin * range.fMax));
+    const ev = transferEvaluator(sys, Math.sqrt(range.fMin * range.fMax), reduction);
     const sweep = sweepTransfer(ev, logGrid(range.fMin, range.fMax, range.perDecade));
     res.sweep = sweep;
     const bw = findBandwidth(ev, sweep, dcT.value);
@@ -173,7 +176,7 @@ export function runAnalyses(sys: MnaSystem, issues: EngineIssue[], conditions: A
   if (zAt.reason) reasons.nodeImpedance = zAt.reason;
   res.nodes = nodeRows(sys, zDc, zAt.values, nodeTimeConstants(sys, zDc));
   res.octc = openCircuitTimeConstants(sys, dc);
-  res.participation = poleParticipation(sys, poles.poles);
+  res.participation = poleParticipation(sys, poles.poles, { reduction });
   res.ok = !hasError(res.issues);
   return sanitize(res);
 }

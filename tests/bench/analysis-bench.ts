@@ -5,7 +5,12 @@
 import { analyze, buildMna, logGrid, type Netlist } from '../../src/engine/index';
 import { computePoles } from '../../src/engine/analyses/poles';
 import { computeZeros } from '../../src/engine/analyses/zeros';
-import { impedancesAtHz } from '../../src/engine/analyses/impedance';
+import { dcImpedances, impedancesAtHz } from '../../src/engine/analyses/impedance';
+import { factorDc } from '../../src/engine/analyses/dc';
+import { transferEvaluator } from '../../src/engine/analyses/transfer';
+import { sweepTransfer } from '../../src/engine/analyses/frequency';
+import { openCircuitTimeConstants } from '../../src/engine/analyses/octc';
+import { poleParticipation } from '../../src/engine/analyses/participation';
 
 /** A chain of `stages` CS gain stages (direct small-signal values) with Miller and coupling caps
  *  and an overall resistive feedback: unknowns = stages + 1 nodes + 1 source branch. */
@@ -68,6 +73,13 @@ export function runAnalysisBench(print: (s: string) => void = console.log): Anal
   const zeros = time(() => computeZeros(sys, p));
   const grid = logGrid(1e3, 1e12, 11).slice(0, 100);
   const imp = time(() => { for (const f of grid) impedancesAtHz(sys, f); }, 3);
+  const dc = factorDc(sys);
+  const sweepGrid = logGrid(1e6, 1e12, 16);
+  const sweep = time(() => sweepTransfer(transferEvaluator(sys), sweepGrid));
+  const nodes = time(() => { dcImpedances(sys, dc); impedancesAtHz(sys, 1e8, dc); });
+  const octc = time(() => openCircuitTimeConstants(sys, dc));
+  const part = time(() => poleParticipation(sys, p));
+  print(`60 unknowns: transfer sweep (${sweepGrid.length} f) ${sweep.toFixed(2)} ms, node table (DC + one f) ${nodes.toFixed(2)} ms, OCTC ${octc.toFixed(2)} ms, participation of ${p.length} poles ${part.toFixed(2)} ms`);
   const full = rows.find((r) => r.unknowns === 60)!.ms;
   print(`60 unknowns: poles ${poles.toFixed(2)} ms, zeros ${zeros.toFixed(2)} ms, all node impedances at ${grid.length} frequencies ${imp.toFixed(2)} ms`);
   print(`60 unknowns: (poles + zeros + impedances at 100 f) / 16 ms budget = ${((poles + zeros + imp) / 16).toFixed(2)}; full analyze / 16 ms = ${(full / 16).toFixed(2)}`);

@@ -6,7 +6,7 @@
 // one O(n²) Hessenberg solve per frequency after an O(n³) set-up.
 
 import type { Cx } from '../types';
-import { luReal, solveReal } from '../linalg/lu';
+import { luReal, solveReal, type RealLU } from '../linalg/lu';
 
 export interface HessenbergForm {
   n: number;
@@ -17,8 +17,9 @@ export interface HessenbergForm {
   ct: Float64Array;
 }
 
-/** Householder reduction of M (modified in place) to upper Hessenberg; applies Qᵀ to vs. */
-function reduceToHessenberg(M: Float64Array, n: number, vs: Float64Array[]): void {
+/** Householder reduction of M (modified in place) to upper Hessenberg; accumulates Q (M = Q·H·Qᵀ)
+ *  when given (Q must start as the identity). */
+function reduceToHessenberg(M: Float64Array, n: number, Q?: Float64Array): void {
   const v = new Float64Array(n);
   for (let k = 0; k < n - 2; k++) {
     let alpha = 0;
@@ -39,27 +40,31 @@ function reduceToHessenberg(M: Float64Array, n: number, vs: Float64Array[]): voi
       d *= beta;
       for (let i = k + 1; i < n; i++) M[i * n + j] -= d * v[i];
     }
-    // M ← M·P (columns k+1..n−1)
-    for (let i = 0; i < n; i++) {
-      let d = 0;
-      for (let j = k + 1; j < n; j++) d += M[i * n + j] * v[j];
-      d *= beta;
-      for (let j = k + 1; j < n; j++) M[i * n + j] -= d * v[j];
-    }
-    for (const x of vs) {
-      let d = 0;
-      for (let i = k + 1; i < n; i++) d += v[i] * x[i];
-      d *= beta;
-      for (let i = k + 1; i < n; i++) x[i] -= d * v[i];
+    // M ← M·P (columns k+1..n−1), and Q ← Q·P
+    for (const X of Q ? [M, Q] : [M]) {
+      for (let i = 0; i < n; i++) {
+        let d = 0;
+        for (let j = k + 1; j < n; j++) d += X[i * n + j] * v[j];
+        if (d === 0) continue;
+        d *= beta;
+        for (let j = k + 1; j < n; j++) X[i * n + j] -= d * v[j];
+      }
     }
     for (let i = k + 2; i < n; i++) M[i * n + k] = 0;
   }
 }
 
-/** Build the Hessenberg form for shift σ; null when G + σC is (numerically) singular. */
-export function hessenbergForm(
-  G: Float64Array, C: Float64Array, b: Float64Array, c: Float64Array, n: number, sigma: number,
-): HessenbergForm | null {
+/** F = G + σC (its LU), and the Hessenberg form H = Qᵀ·F⁻¹C·Q. */
+export interface ShiftedReduction {
+  n: number;
+  sigma: number;
+  H: Float64Array;
+  Q: Float64Array;
+  f: RealLU;
+}
+
+/** Reduction for one shift σ; null when G + σC is (numerically) singular. */
+export function reduceShifted(G: Float64Array, C: Float64Array, n: number, sigma: number): ShiftedReduction | null {
   const A = new Float64Array(n * n);
   for (let i = 0; i < n * n; i++) A[i] = G[i] + sigma * C[i];
   const f = luReal(A, n);
@@ -71,11 +76,39 @@ export function hessenbergForm(
     const x = solveReal(f, col);
     for (let i = 0; i < n; i++) M[i * n + j] = x[i];
   }
-  const bt = solveReal(f, b);
-  const ct = Float64Array.from(c);
-  reduceToHessenberg(M, n, [bt, ct]);
+  for (let i = 0; i < n * n; i++) if (!Number.isFinite(M[i])) return null;
+  const Q = new Float64Array(n * n);
+  for (let i = 0; i < n; i++) Q[i * n + i] = 1;
+  reduceToHessenberg(M, n, Q);
+  return { n, sigma, H: M, Q, f };
+}
+
+/** Tries σ = 0 (DC, best when G is regular), then shifts of the circuit's own rate ‖G‖/‖C‖. */
+export function shiftedReduction(G: Float64Array, C: Float64Array, n: number): ShiftedReduction | null {
+  let gn = 0, cn = 0;
+  for (let i = 0; i < n * n; i++) { gn += G[i] * G[i]; cn += C[i] * C[i]; }
+  if (n === 0 || !(gn > 0) || !(cn > 0)) return null;
+  const w0 = Math.sqrt(gn / cn);
+  for (const sigma of [0, w0, -0.7 * w0, 3.1 * w0]) {
+    const r = reduceShifted(G, C, n, sigma);
+    if (r) return r;
+  }
+  return null;
+}
+
+/** Transfer-specific vectors: Qᵀ(G + σC)⁻¹b and Qᵀc. */
+export function hessenbergForm(red: ShiftedReduction, b: Float64Array, c: Float64Array): HessenbergForm | null {
+  const { n, Q } = red;
+  const x = solveReal(red.f, b);
+  const bt = new Float64Array(n);
+  const ct = new Float64Array(n);
+  for (let j = 0; j < n; j++) {
+    let sb = 0, sc = 0;
+    for (let i = 0; i < n; i++) { sb += Q[i * n + j] * x[i]; sc += Q[i * n + j] * c[i]; }
+    bt[j] = sb; ct[j] = sc;
+  }
   for (let i = 0; i < n; i++) if (!Number.isFinite(bt[i])) return null;
-  return { n, sigma, H: M, bt, ct };
+  return { n, sigma: red.sigma, H: red.H, bt, ct };
 }
 
 /** cᵀ(G + sC)⁻¹b from the Hessenberg form; null when I + (s − σ)H is singular (s is a pole).

@@ -3,7 +3,7 @@
 import type { Cx, MnaSystem } from '../types';
 import { luComplex, solveComplex } from '../linalg/lu';
 import { dcBilinear, factorDc, type DcFactor } from './dc';
-import { evalHessenberg, hessenbergForm, type HessenbergForm } from './hessenberg';
+import { evalHessenberg, hessenbergForm, shiftedReduction, type ShiftedReduction } from './hessenberg';
 
 export type TransferSys = Pick<MnaSystem, 'n' | 'G' | 'C' | 'b' | 'c'>;
 
@@ -66,23 +66,17 @@ function relErr(a: Cx | null, b: Cx | null): number {
 }
 
 /** An evaluator for many s: Hessenberg form when a usable shift is found and it agrees with the
- *  direct solve at a probe point; the direct solve otherwise. `probeHz` is a typical frequency. */
-export function transferEvaluator(sys: TransferSys, probeHz?: number): TransferEvaluator {
+ *  direct solve at a probe point; the direct solve otherwise. `probeHz` is a typical frequency;
+ *  `reduction` may be shared with other users of the same system (see modal.ts). */
+export function transferEvaluator(sys: TransferSys, probeHz?: number, reduction?: ShiftedReduction | null): TransferEvaluator {
   const { n, G, C, b, c } = sys;
   const direct: TransferEvaluator = {
     at: (s) => transferDirect(sys, s),
     atHz: (f) => transferDirect(sys, { re: 0, im: 2 * Math.PI * f }),
     method: 'direct',
   };
-  const gn = frobenius(G);
-  const cn = frobenius(C);
-  if (n === 0 || cn === 0 || gn === 0) return direct;
-  const w0 = gn / cn;
-  let form: HessenbergForm | null = null;
-  for (const sigma of [0, w0, -0.7 * w0, 3.1 * w0]) {
-    form = hessenbergForm(G, C, b, c, n, sigma);
-    if (form) break;
-  }
+  const red = reduction === undefined ? shiftedReduction(G, C, n) : reduction;
+  const form = red ? hessenbergForm(red, b, c) : null;
   if (!form) return direct;
   const h = form;
   const work = { re: new Float64Array(n * n), im: new Float64Array(n * n) };
@@ -94,6 +88,7 @@ export function transferEvaluator(sys: TransferSys, probeHz?: number): TransferE
     return transferDirect(sys, s);
   };
   const fast: TransferEvaluator = { at, atHz: (f) => at({ re: 0, im: 2 * Math.PI * f }), method: 'hessenberg' };
+  const w0 = frobenius(G) / frobenius(C);
   const probe = { re: 0, im: probeHz !== undefined && probeHz > 0 ? 2 * Math.PI * probeHz : w0 };
   const ref = transferDirect(sys, probe);
   if (ref && Math.hypot(ref.re, ref.im) > 0 && relErr(fast.at(probe), ref) > 1e-7) return direct;
