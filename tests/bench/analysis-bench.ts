@@ -37,7 +37,8 @@ function median(xs: number[]): number {
 }
 
 function time(fn: () => unknown, minRuns = 5, minMs = 200): number {
-  fn(); // warm-up
+  // Warm-up until the JIT has settled (at least 3 calls and 100 ms), then measure.
+  for (let w = 0, t = performance.now(); w < 3 || performance.now() - t < 100; w++) { fn(); if (w > 200) break; }
   const ts: number[] = [];
   const t0 = performance.now();
   while (ts.length < minRuns || performance.now() - t0 < minMs) {
