@@ -160,3 +160,11 @@ export function logTicks(lo: number, hi: number, unit = '', maxLabels = 8, minor
   }
   return out.sort((a, b) => a.value - b.value);
 }
+
+/** Unitless number with `digits` significant digits: "0.6321", "−12.5", "1.20e-7" outside 1e-3..1e5. */
+export function formatPlain(v: number, digits = 4): string {
+  if (!Number.isFinite(v)) return Number.isNaN(v) ? '—' : v < 0 ? `${MINUS}∞` : '∞';
+  const a = Math.abs(v);
+  const s = a === 0 || (a >= 1e-3 && a < 1e5) ? String(Number(v.toPrecision(digits))) : v.toExponential(digits - 1);
+  return s.startsWith('-') ? MINUS + s.slice(1) : s;
+}

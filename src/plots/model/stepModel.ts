@@ -3,7 +3,7 @@
 // across both panels.
 import type { PlotSize, StepInput } from '../types';
 import type { Scene } from './scene';
-import { formatSi, linearScale, logScale, linearTicks, logTicks, niceStep, plainLabel } from './scales';
+import { formatPlain, formatSi, linearScale, logScale, linearTicks, logTicks, niceStep, plainLabel } from './scales';
 import { addNote, addPanel, axesItems, curveRuns, extent, newScene, titleItem, FONT_SIZE, type Panel } from './frame';
 import { niceDomain } from './freqPanels';
 import { LINES, PALETTE } from './palette';
@@ -48,7 +48,7 @@ export function stepModel(input: StepInput, opts: StepOptions = {}): Scene {
   if (yInf !== null && yInf !== 0) {
     const yline = top1.ys.map(yInf);
     scene.items.push({ kind: 'line', role: 'final-value', clip: 'y', x1: left, y1: yline, x2: left + w, y2: yline, style: LINES.reference });
-    scene.items.push({ kind: 'text', role: 'final-value-label', x: left + w - 4, y: yline - 3, text: `y∞ = ${formatSi(yInf, '', { digits: 4 })}`, anchor: 'end', baseline: 'auto', size: FONT_SIZE - 1, fill: PALETTE.inkSoft });
+    scene.items.push({ kind: 'text', role: 'final-value-label', x: left + w - 4, y: yline - 3, text: `y∞ = ${formatPlain(yInf)}`, anchor: 'end', baseline: 'auto', size: FONT_SIZE - 1, fill: PALETTE.inkSoft });
     err = y.map((v) => { const e = Math.abs(v - yInf) / Math.abs(yInf); return e > 0 ? e : null; });
     const tols = input.settling.map((s) => s.tolerance).filter((e) => e > 0);
     const eMax = Math.max(1, ...err.filter((e): e is number => e !== null));
@@ -82,7 +82,7 @@ export function stepModel(input: StepInput, opts: StepOptions = {}): Scene {
     points: t.map((tv, i) => {
       const x = xs.map(tv);
       const dots: [number, number][] = [[x, top1.ys.map(y[i])]];
-      const lines = [`t = ${formatSi(tv, 's')}`, `y = ${formatSi(y[i], '', { digits: 4 })}`];
+      const lines = [`t = ${formatSi(tv, 's')}`, `y = ${formatPlain(y[i])}`];
       const e = err[i];
       if (ep && e !== null && e !== undefined) { dots.push([x, Math.max(ep.y, Math.min(ep.y + ep.h, ep.ys.map(e)))]); lines.push(`error = ${percent(e)}`); }
       return { x, y: top, dots, lines };
