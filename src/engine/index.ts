@@ -169,7 +169,13 @@ export function runAnalyses(sys: MnaSystem, issues: EngineIssue[], conditions: A
   }
 
   const slowest = poles.poles.find((p) => p.kind !== 'origin');
-  const fz = opts.frequencyHz ?? res.bandwidthHz ?? res.unityGainHz ?? slowest?.hz ?? 1e6;
+  let asked = opts.frequencyHz;
+  if (asked !== undefined && !(typeof asked === 'number' && Number.isFinite(asked) && asked >= 0)) {
+    res.issues.push({ severity: 'warning', code: 'bad-value', field: 'frequencyHz',
+      message: `frequencyHz: ${String(asked)} is not a frequency ≥ 0 in Hz; the default frequency is used` });
+    asked = undefined;
+  }
+  const fz = asked ?? res.bandwidthHz ?? res.unityGainHz ?? slowest?.hz ?? 1e6;
   conditions.frequencyHz = fz;
   const zDc = dcImpedances(sys, dc);
   const zAt = impedancesAtHz(sys, fz, dc);

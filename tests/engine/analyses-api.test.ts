@@ -61,6 +61,11 @@ describe('analyze() on the examples', () => {
     const r = analyze(load('two-stage-miller-unity.json'));
     expect(r.dcGain! / (A / (1 + A))).toBeCloseTo(1, 10);
     expect(r.poles.every((p) => p.re < 0)).toBe(true);
+    // Miller compensation's feedforward path gives one RHP zero at gm2/Cc; unity feedback keeps
+    // the forward path's zeros (Gray & Meyer, two-stage op-amp compensation).
+    expect(r.zeros.length).toBe(1);
+    expect(r.zeros[0].re / (1e-3 / 1e-12)).toBeCloseTo(1, 9);
+    expect(r.zeros[0].rhp).toBe(true);
     // Closed-loop bandwidth near the open-loop gain-bandwidth gm1/(2π·Cc) ≈ 15.9 MHz (common
     // practice); the non-dominant pole moves it, so only the order of magnitude is checked.
     expect(r.bandwidthHz!).toBeGreaterThan(8e6);
@@ -128,6 +133,14 @@ describe('analyze() conditions and bad input', () => {
     expect(r.nodes.find((n) => n.name === 'x')).toMatchObject({ dcOhms: null, openAtDc: true });
     // |H| = gm/(ωC): unity gain at gm/(2πC) ≈ 159 MHz (common practice).
     expect(r.unityGainHz! / (1e-3 / (2 * Math.PI * 1e-12))).toBeCloseTo(1, 8);
+    expect(hasNonFinite(r)).toBe(false);
+  });
+
+  it('bad analysis options get a named warning or are bounded, never NaN', () => {
+    const r = analyze(load('sensor-cs-miller.json'), { frequencyHz: Number.NaN, sweep: { fMin: 1e-30, fMax: 1e30, perDecade: 1e9 } });
+    expect(r.ok).toBe(true);
+    expect(r.issues.some((i) => i.field === 'frequencyHz' && i.severity === 'warning')).toBe(true);
+    expect(r.sweep!.hz.length).toBeLessThanOrEqual(4001);
     expect(hasNonFinite(r)).toBe(false);
   });
 });

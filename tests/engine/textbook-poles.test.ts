@@ -98,8 +98,10 @@ describe('doubly terminated Butterworth LC ladders', () => {
       // Largest pole Q of a Butterworth filter: 1/(2·sin(π/(2n))) (common practice).
       const qMax = Math.max(...p.map((x) => x.q ?? 0));
       expect(qMax).toBeCloseTo(1 / (2 * Math.sin(Math.PI / (2 * n))), 8);
-      // Doubly terminated, equal resistors: DC gain 1/2 (common practice).
+      // Doubly terminated, equal resistors: DC gain 1/2; an all-pole (ladder) response has no
+      // finite zeros (common practice).
       expect(dcTransfer(ladder(n)).value!).toBeCloseTo(0.5, 12);
+      expect(computeZeros(ladder(n), p).zeros).toEqual([]);
     });
   }
 

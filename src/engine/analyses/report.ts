@@ -63,6 +63,9 @@ export function resolveSwitches(elements: Element[], scale: Record<string, numbe
   return { scale: out, off: offIds, scaled, issues };
 }
 
+const MAX_PER_DECADE = 200;
+const MAX_POINTS = 4000;
+
 /** Sweep range: the caller's, else two decades beyond the poles and zeros, decade-aligned. */
 export function chooseSweep(req: { fMin?: number; fMax?: number; perDecade?: number } | undefined, poles: Pole[], zeros: Zero[]): SweepRange {
   const fs = [...poles, ...zeros].map((p) => p.hz).filter((f) => f > 0 && Number.isFinite(f));
@@ -75,7 +78,10 @@ export function chooseSweep(req: { fMin?: number; fMax?: number; perDecade?: num
   const fMin = req?.fMin !== undefined && req.fMin > 0 ? req.fMin : lo;
   const fMaxReq = req?.fMax !== undefined && req.fMax > fMin ? req.fMax : undefined;
   const fMax = fMaxReq ?? Math.max(hi, fMin * 10);
-  const perDecade = req?.perDecade !== undefined && req.perDecade >= 1 ? Math.floor(req.perDecade) : 10;
+  let perDecade = req?.perDecade !== undefined && req.perDecade >= 1 ? Math.min(Math.floor(req.perDecade), MAX_PER_DECADE) : 10;
+  // Keep the grid bounded whatever range was asked for.
+  const decades = Math.log10(fMax / fMin);
+  if (decades * perDecade > MAX_POINTS) perDecade = Math.max(1, Math.floor(MAX_POINTS / decades));
   return { fMin, fMax, perDecade };
 }
 
