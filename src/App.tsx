@@ -8,7 +8,7 @@ import { documentToNetlist } from './schematic/toNetlist';
 import { Sheet } from './canvas/Sheet';
 import { GridLayer } from './canvas/GridLayer';
 import { PartsLayer } from './canvas/PartsLayer';
-import { OverlayLayer } from './canvas/OverlayLayer';
+import { OverlayLayer, WHOLE_DRAWING_CODES } from './canvas/OverlayLayer';
 import { InteractionLayer } from './canvas/InteractionLayer';
 import { Palette } from './panels/Palette';
 import { PropertyPanel, type Drafts } from './panels/PropertyPanel';
@@ -116,6 +116,13 @@ export function App({ editor, examples = [], storage = typeof localStorage === '
                 <span>{banner.text}</span>
                 <button type="button" aria-label="Dismiss" onClick={() => setBanner(null)}>×</button>
               </div>
+            )}
+            {showIssues && (
+              <ul className="sheet-notes" aria-label="Problems of the whole drawing">
+                {analysis.issues.filter((i) => WHOLE_DRAWING_CODES.has(i.code)).map((i) => (
+                  <li key={i.code} className={i.severity}>{i.message}</li>
+                ))}
+              </ul>
             )}
             <div className="sheet-zoom">
               <button type="button" className="tb-btn" title="Zoom out" onClick={() => dispatch({ type: 'command', id: 'view.zoomOut' })}>−</button>

@@ -42,6 +42,10 @@ const IssueMark = memo(function IssueMark({ issue, scale, stack }: { issue: Draw
   );
 });
 
+/** Problems of the drawing as a whole, not of one place: shown in a corner of the sheet
+ *  (see SheetNotes) rather than pinned to an arbitrary part. */
+export const WHOLE_DRAWING_CODES: ReadonlySet<DrawingIssue['code']> = new Set(['no-ground', 'no-input', 'no-output']);
+
 /** Several problems at one point are listed one under the other instead of on top of each other. */
 export function stackMarks(issues: DrawingIssue[]): { issue: DrawingIssue; stack: number }[] {
   const seen = new Map<string, number>();
@@ -66,7 +70,7 @@ function OverlayLayerView({ junctions, issues, scale, showIssues }: Props) {
       {junctions.map((j) => (
         <Circle key={`${j.x},${j.y}`} x={j.x} y={j.y} radius={JUNCTION_RADIUS} fill={WIRE} perfectDrawEnabled={false} listening={false} />
       ))}
-      {showIssues && stackMarks(issues).map(({ issue, stack }, i) => (
+      {showIssues && stackMarks(issues.filter((i) => !WHOLE_DRAWING_CODES.has(i.code))).map(({ issue, stack }, i) => (
         <IssueMark key={`${issue.code}:${issue.part ?? issue.wire ?? issue.net ?? ''}:${issue.pin ?? ''}:${i}`} issue={issue} scale={scale} stack={stack} />
       ))}
     </Layer>
