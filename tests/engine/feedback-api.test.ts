@@ -33,6 +33,14 @@ describe('feedback API on an engine netlist', () => {
     expect(g.margins.unityGainHz).not.toBeNull();
     expect(r.caution).toMatch(/small-signal/);
     expect(JSON.stringify(r)).not.toMatch(/NaN|Infinity/);
+    for (const l of r.loops) {
+      if (l.margins.phaseMarginDeg === null) continue;
+      expect(l.margins.phaseMarginDeg).toBeGreaterThan(-180);
+      expect(l.margins.phaseMarginDeg).toBeLessThanOrEqual(180);
+    }
+    // the transfer is Z(out) (test current in): the step settles to its DC value
+    expect(r.step!.status).toBe('ok');
+    expect(r.step!.settling.map((x) => x.tolerance)).toEqual([1e-2, 1e-3, 1e-4]);
   });
 
   it('off by part name switches the key source off and names unknown ones', () => {

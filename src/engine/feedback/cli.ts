@@ -87,6 +87,9 @@ export function feedbackReport(netlist: Netlist, args: FeedbackArgs, io: { input
     const top = fb.slowestPole.ranked.slice(0, 5).map((e) => `${e.element} (${e.value}) ${fmt(e.dlnp.re)}`).join(', ');
     lines.push(`  slowest pole ${hz(Math.hypot(fb.slowestPole.pole!.re, fb.slowestPole.pole!.im) / (2 * Math.PI))}: d ln|p|/d ln x — ${top}`);
   }
+  if (fb.step?.status === 'ok') {
+    lines.push(`  step response: settles to ${fb.step.settling.map((x) => `${x.tolerance * 100} % in ${x.seconds === null ? '—' : formatSi(x.seconds, 's')}`).join(', ')}; overshoot ${fmt((fb.step.overshoot ?? 0) * 100)} %`);
+  } else if (fb.step?.message) lines.push(`  step response: ${fb.step.message}`);
   for (const n of fb.notes) lines.push(`  note: ${n}`);
   const loops = discoverLoops(sys).loops;
   if (args.off.length) {

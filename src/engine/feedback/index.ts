@@ -13,6 +13,8 @@ import { boosterChecks, findDoublets } from './doublets';
 import type { BoosterCheck, DoubletResult } from './doublets';
 import type { BlackmanResult } from './blackman';
 import { poleSensitivity } from './sensitivity';
+import { stepResponse } from './step';
+import type { StepResponse } from './step';
 import type { PoleSensitivity } from './sensitivity';
 import { scaledG, sourceStamps } from './pencil';
 
@@ -60,6 +62,8 @@ export interface FeedbackResult {
   boosters: BoosterCheck[];
   doublets: DoubletResult | null;
   slowestPole: PoleSensitivity | null;
+  /** Step response of the chosen transfer (thinned waveform) with settling times. */
+  step: StepResponse | null;
 }
 
 export interface FeedbackOptions extends LoopOptions {
@@ -121,6 +125,7 @@ export function analyzeFeedbackSystem(sys: MnaSystem, opts: FeedbackOptions = {}
     boosters: hasTransfer ? boosterChecks(sys, d.loops, { scale }) : [],
     doublets: hasTransfer ? findDoublets(sys, { scale }) : null,
     slowestPole: poleSensitivity(scaleSystem(sys, scale)),
+    step: hasTransfer ? stepResponse(scaleSystem(sys, scale), { maxPoints: 400 }) : null,
   };
   return jsonSafe(result);
 }
@@ -129,7 +134,7 @@ export function analyzeFeedbackSystem(sys: MnaSystem, opts: FeedbackOptions = {}
 export function analyzeFeedback(netlist: Netlist, opts: FeedbackOptions = {}): FeedbackResult {
   const built = buildMna(netlist);
   if (!built.system) {
-    return { ok: false, caution: FEEDBACK_CAUTION, issues: built.issues, off: [], loops: [], truncated: false, threshold: opts.threshold ?? 0.01, groups: [], notes: [], boosters: [], doublets: null, slowestPole: null };
+    return { ok: false, caution: FEEDBACK_CAUTION, issues: built.issues, off: [], loops: [], truncated: false, threshold: opts.threshold ?? 0.01, groups: [], notes: [], boosters: [], doublets: null, slowestPole: null, step: null };
   }
   const r = analyzeFeedbackSystem(built.system, opts);
   return { ...r, issues: [...built.issues.filter((i) => i.severity !== 'error'), ...r.issues] };

@@ -90,7 +90,9 @@ function marginsFrom(
     const fu = bisectLog(grid[cross - 1], grid[cross], (f) => cabs(at(f).value ?? { re: 0, im: 0 }) - 1);
     result.unityGainHz = fu;
     const ph = unwrapNear(carg(at(fu).value!), phase[cross - 1]);
-    result.phaseMarginDeg = 180 + ph * DEG;
+    // reported in (−180°, 180°]: whole turns picked up by the grid unwrap carry no meaning here
+    const pm = 180 + ph * DEG;
+    result.phaseMarginDeg = pm - 360 * Math.ceil((pm - 180) / 360);
   }
   const pc = phase.findIndex((p, i) => i > 0 && phase[i - 1] > -Math.PI && p <= -Math.PI);
   if (pc > 0) {
