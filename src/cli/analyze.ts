@@ -28,20 +28,31 @@ function parseArgs(argv: string[]): CliArgs {
 export interface LoadedDocument { netlist?: Netlist; problems: string[] }
 
 /** Hook for every document kind the CLI accepts: an engine netlist as is, or a saved drawing
- *  ("format": "polesketch-drawing") through the schematic converter when that module is present. */
+ *  ("format": "polesketch-drawing") checked by the drawing loader (src/schematic/file.ts, when
+ *  present) and converted by documentToNetlist (src/schematic/toNetlist.ts) when that is present. */
 export async function loadAnyDocument(json: unknown): Promise<LoadedDocument> {
   if (typeof json !== 'object' || json === null || Array.isArray(json)) return { problems: ['expected a JSON object (an engine netlist or a saved drawing)'] };
   const fmt = (json as { format?: unknown }).format;
   if (fmt !== 'polesketch-drawing') return { netlist: json as Netlist, problems: [] };
-  let mod: { documentToNetlist?: (doc: never) => { netlist?: Netlist; issues: { severity: string; message: string }[] } };
+  type Converter = { documentToNetlist?: (doc: never) => { netlist?: Netlist; issues: { severity: string; message: string }[] } };
+  type Loader = { loadDrawing?: (input: unknown) => { ok: true; doc: unknown } | { ok: false; reason: string } };
+  let conv: Converter;
   try {
-    mod = await import('../schematic/toNetlist');
+    conv = await import('../schematic/toNetlist');
   } catch {
     return { problems: ['this is a saved drawing, but the drawing converter (src/schematic/toNetlist.ts) is not available'] };
   }
-  if (typeof mod.documentToNetlist !== 'function') return { problems: ['the drawing converter does not export documentToNetlist'] };
-  const r = mod.documentToNetlist(json as never);
+  if (typeof conv.documentToNetlist !== 'function') return { problems: ['the drawing converter does not export documentToNetlist'] };
+  let doc: unknown = json;
+  const loader: Loader | null = await import('../schematic/file').catch(() => null);
+  if (loader && typeof loader.loadDrawing === 'function') {
+    const loaded = loader.loadDrawing(json);
+    if (!loaded.ok) return { problems: [`drawing: ${loaded.reason}`] };
+    doc = loaded.doc;
+  }
+  const r = conv.documentToNetlist(doc as never);
   const problems = r.issues.filter((i) => i.severity === 'error').map((i) => `drawing: ${i.message}`);
+  if (!problems.length && !r.netlist) problems.push('drawing: the drawing gave no netlist');
   return { netlist: problems.length ? undefined : r.netlist, problems };
 }
 

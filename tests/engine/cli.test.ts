@@ -92,4 +92,13 @@ describe('analyze CLI', { timeout: 120000 }, () => {
     expect(c.stderr).toMatch(/unknown option --bogus/);
     for (const r of [a, b, c]) expect(noStack(r.stderr)).toBe(true);
   });
+
+  it('a saved drawing goes through the drawing converter and gives the same numbers as its netlist', async () => {
+    const drawing = 'src/examples/sensor-cs-miller.drawing.json';
+    const [a, b] = await Promise.all([cli([drawing, '--json']), cli([join(dir, 'sensor-cs-miller.json'), '--json'])]);
+    expect(a.code, a.stderr).toBe(0);
+    const ja = JSON.parse(a.stdout), jb = JSON.parse(b.stdout);
+    expect(ja.dcGain / jb.dcGain).toBeCloseTo(1, 12);
+    expect(ja.poles.map((p: { hz: number }) => p.hz)).toEqual(jb.poles.map((p: { hz: number }) => p.hz));
+  });
 });
