@@ -1,6 +1,6 @@
 import { describe, it, expect } from 'vitest';
 import { discoverLoops } from '../../src/engine/feedback/loops';
-import { build, R, Cap, Vsrc, nmos, regulatedCascode } from './feedback-fixtures';
+import { build, R, Cap, Gm, Vsrc, nmos, regulatedCascode } from './feedback-fixtures';
 
 describe('loop discovery', () => {
   it('source follower: only local loops (Razavi: follower = local feedback through the source)', () => {
@@ -56,5 +56,48 @@ describe('loop discovery', () => {
     const d = discoverLoops(regulatedCascode(50, 10e6), { cap: 1 });
     expect(d.loops.length).toBe(1);
     expect(d.truncated).toBe(true);
+  });
+});
+
+describe('coupling graph semantics', () => {
+  it('edges are direct transfers: d(G1→G2) = gm1·R1, and the two-stage cycle gain is gm1R1·gm2R2 (common practice)', () => {
+    const gm1 = 1e-4, R1 = 1e6, gm2 = 2e-3, R2 = 1e5;
+    const sys = build([
+      Vsrc('V1', 'in', '0'),
+      Gm('G1', 'a', '0', 'in', 'out', gm1), R('R1', 'a', '0', R1),
+      Gm('G2', 'out', '0', 'a', '0', gm2), R('R2', 'out', '0', R2),
+    ], { input: 'V1' });
+    const d = discoverLoops(sys);
+    const g = d.graph;
+    const i1 = g.stamps.findIndex((s) => s.id === 'G1.gm'), i2 = g.stamps.findIndex((s) => s.id === 'G2.gm');
+    const N = g.stamps.length;
+    // G1 takes gm1·vc out of a: its unit-control excitation drives a to −gm1·R1
+    expect(g.re[0][i1 * N + i2]).toBeCloseTo(-gm1 * R1, 9);
+    const loop = d.loops.find((l) => l.kind === 'global')!;
+    expect(loop.cycleGainDc.re).toBeCloseTo(gm1 * R1 * gm2 * R2, 6);
+    expect(loop.returnRatioDc.value!.re).toBeCloseTo(gm1 * R1 * gm2 * R2, 6);
+  });
+
+  it('the key\'s Bode return ratio follows from the graph by signal-flow algebra (Mason 1953)', () => {
+    // two coupled sources A (A1.A0) and M (M2.gm): T_A = −d_AA − d_AM·d_MA/(1 − d_MM)
+    const sys = regulatedCascode(30, 2e6);
+    const d = discoverLoops(sys, { freqsHz: [3e7, 1e9] });
+    const g = d.graph;
+    const N = g.stamps.length;
+    const a = g.stamps.findIndex((s) => s.id === 'A1.A0'), m = g.stamps.findIndex((s) => s.id === 'M2.gm');
+    expect(N).toBe(2); // M1's control is grounded, so it is not in the graph
+    const loop = d.loops.find((l) => l.key === 'A1.A0')!;
+    for (let fi = 0; fi < g.fHz.length; fi++) {
+      const dd = (i: number, j: number) => ({ re: g.re[fi][i * N + j], im: g.im[fi][i * N + j] });
+      const mul = (x: { re: number; im: number }, y: { re: number; im: number }) => ({ re: x.re * y.re - x.im * y.im, im: x.re * y.im + x.im * y.re });
+      const num = mul(dd(a, m), dd(m, a));
+      const den = { re: 1 - dd(m, m).re, im: -dd(m, m).im };
+      const q = den.re * den.re + den.im * den.im;
+      const ratio = { re: (num.re * den.re + num.im * den.im) / q, im: (num.im * den.re - num.re * den.im) / q };
+      const T = { re: -dd(a, a).re - ratio.re, im: -dd(a, a).im - ratio.im };
+      const exact = fi === 0 ? loop.returnRatioDc.value! : loop.returnRatio.points[fi - 1].value!;
+      expect(T.re).toBeCloseTo(exact.re, 8);
+      expect(T.im).toBeCloseTo(exact.im, 8);
+    }
   });
 });
