@@ -106,6 +106,7 @@ function printText(file: string, title: string | undefined, r: AnalysisResult, o
 export async function main(argv: string[], out: (s: string) => void = console.log, err: (s: string) => void = console.error): Promise<number> {
   const fb = takeFeedbackArgs(argv);
   const args = parseArgs(fb.rest);
+  args.problems.push(...(fb.args?.problems ?? []));
   if (args.problems.length) {
     for (const p of args.problems) err(`analyze: ${p}`);
     err(`usage: npm run analyze -- <file.json> [--json] [--in SRC --out NODE] ${FEEDBACK_USAGE}`);
