@@ -10,7 +10,7 @@ import { newPart, nextRef } from '../schematic/kinds';
 import { placedBounds, placedPins, type PinSide } from '../schematic/symbols';
 import type { ElkGraphJson } from './elkGraph';
 import { portId } from './elkGraph';
-import { buildModel, gridRect, railStub, unionRect, type LayoutModel, type RailStub, type Rect } from './model';
+import { buildModel, gridRect, partBox, railStub, unionRect, type LayoutModel, type RailStub, type Rect } from './model';
 import { mazeRoute } from './maze';
 import { Occupancy, between, simplify } from './occupancy';
 
@@ -23,7 +23,7 @@ export interface ApplyOutcome {
   wiresFromElk: number;
 }
 
-const BLOCK_GAP = 60;
+const BLOCK_GAP = 20;
 
 /** Where the laid-out block goes: where the moving parts were, unless that overlaps a part that
  *  stays, in which case it goes right of those parts. */
@@ -32,7 +32,11 @@ function blockOffset(doc: DrawingDocument, model: LayoutModel, elkBox: Rect): Po
     const p = doc.parts[m.id];
     return { x: p.x + m.box.x, y: p.y + m.box.y, width: m.box.width, height: m.box.height };
   }));
-  const fixedBox = unionRect(model.fixed.map((id) => placedBounds(doc.parts[id])));
+  // Parts that stay, with their pins and text, kept a wire channel away from the block.
+  const fixedBox = gridRect(unionRect(model.fixed.map((id) => {
+    const p = doc.parts[id], b = partBox(p, []);
+    return { x: p.x + b.x, y: p.y + b.y, width: b.width, height: b.height };
+  })), 4 * GRID);
   let x = old.x, y = old.y;
   const overlaps = model.fixed.length > 0 && !(x + elkBox.width < fixedBox.x || x > fixedBox.x + fixedBox.width || y + elkBox.height < fixedBox.y || y > fixedBox.y + fixedBox.height);
   if (overlaps) { x = fixedBox.x + fixedBox.width + BLOCK_GAP; y = fixedBox.y; }
@@ -150,11 +154,12 @@ export function applyElkLayout(draft: Draft<DrawingDocument> | DrawingDocument, 
     tree.set(net, t);
   };
   const pending: { net: string; pin: string }[] = [];
+  const joined = new Set<string>();
   for (const e of laid.edges) {
     const net = e.id.slice(e.id.indexOf(':') + 1);
     const from = pinAt.get(e.sources[0]), to = pinAt.get(e.targets[0]);
     if (!from || !to) continue;
-    if (!tree.has(net)) grow(net, [from]);
+    if (!tree.has(net)) { grow(net, [from]); joined.add(e.sources[0]); }
     const sec = e.sections?.[0];
     const inner = sec ? (sec.bendPoints ?? []).map((b) => ({ x: snap(b.x + off.x), y: snap(b.y + off.y) })) : null;
     const cand = inner ? joinRoute(from, to, inner) : null;
@@ -162,19 +167,24 @@ export function applyElkLayout(draft: Draft<DrawingDocument> | DrawingDocument, 
       addWire(cand, net);
       occ.addWire(cand, net);
       grow(net, cand);
+      joined.add(e.targets[0]);
       outcome.wiresFromElk += 1;
     } else {
       pending.push({ net, pin: e.targets[0] });
     }
   }
-  // Signal nets with pins outside the laid-out block (parts that stay) join by the maze router.
+  // Every pin of a rebuilt signal net not joined yet (ELK gave no clean route, or its part stays
+  // where it is) is joined by the maze router to the net's tree.
+  const queued = new Set(pending.map((j) => j.pin));
   for (const net of model.nets) {
     if (net.rail || !rebuilt.has(net.key)) continue;
-    for (const k of net.pins) {
-      const part = k.slice(0, k.lastIndexOf('#')) as PartId;
-      if (movingIds.has(part)) continue;
-      if (!tree.has(net.key)) { const p = pinAt.get(k); if (p) grow(net.key, [p]); continue; }
+    const pins = [...net.pins].sort((a, b) => Number(joined.has(b)) - Number(joined.has(a)));
+    for (const k of pins) {
+      if (!pinAt.has(k)) continue;
+      if (!tree.has(net.key)) { grow(net.key, [pinAt.get(k)!]); joined.add(k); continue; }
+      if (joined.has(k) || queued.has(k)) continue;
       pending.push({ net: net.key, pin: k });
+      queued.add(k);
     }
   }
   const all = [...Object.values(doc.parts).map((p) => placedBounds(p)), ...Object.values(doc.wires).map((w) => unionRect(w.points.map((q) => ({ ...q, width: 0, height: 0 }))))];

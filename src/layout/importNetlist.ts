@@ -13,7 +13,7 @@ import { newPart } from '../schematic/kinds';
 import { GROUND_NET } from '../schematic/connectivity';
 import { isSymbolKind, placedPins, symbolOf } from '../schematic/symbols';
 import { documentToNetlist } from '../schematic/toNetlist';
-import { applyElkLayout } from './applyLayout';
+import { applyElkLayout, type ApplyOutcome } from './applyLayout';
 import { toElkGraph, type ElkRunner } from './elkGraph';
 import { partBox, railStub, type LayoutModel, type LayoutNet, type LayoutPart, type RailStub } from './model';
 
@@ -120,7 +120,7 @@ export async function netlistToDrawing(input: unknown, elk: ElkRunner): Promise<
   } catch (e) {
     return { ok: false, doc, messages: [...messages, `the layout engine failed: ${e instanceof Error ? e.message : String(e)}`] };
   }
-  let outcome = { ok: false, message: 'not run' as string | undefined };
+  let outcome: ApplyOutcome = { ok: false, message: 'not run', rerouted: 0, wiresFromElk: 0 };
   const placed = produce(doc, (d) => { outcome = applyElkLayout(d, doc, model, laid); });
   if (!outcome.ok) return { ok: false, doc: placed, messages: [...messages, `layout: ${outcome.message}`] };
   const check = sameNets(net, placed);
