@@ -15,6 +15,8 @@ import { findBandwidth, findUnityGain, logGrid, sweepTransfer, type Sweep } from
 import { dcImpedances, impedancesAtHz } from './analyses/impedance';
 import { nodeTimeConstants, openCircuitTimeConstants, type OctcResult } from './analyses/octc';
 import { poleParticipation, type PoleParticipation } from './analyses/participation';
+import { poleVectors } from './analyses/modal';
+import { impedanceSweep, type ImpedanceSweep } from './analyses/impedance-sweep';
 import { chooseSweep, nodeRows, resolveSwitches, sanitize, singularIssue, type NodeRow, type SweepRange } from './analyses/report';
 
 export type * from './types';
@@ -24,6 +26,7 @@ export type { Sweep, Crossing } from './analyses/frequency';
 export type { OctcResult, CapTimeConstant, NodeTimeConstant } from './analyses/octc';
 export type { PoleParticipation, NodeShare } from './analyses/participation';
 export type { NodeRow, SweepRange } from './analyses/report';
+export type { ImpedanceSweep } from './analyses/impedance-sweep';
 export { parseSi, parseGain, formatSi } from './units';
 export { validateNetlist, canonicalNode, isGroundName } from './netlist';
 export { BUILTIN_PROCESSES, DEFAULT_PROCESS_NAME } from './process';
@@ -45,6 +48,8 @@ export interface AnalyzeOptions {
   frequencyHz?: number;
   /** Polish every pole and zero on the original equations (default: only for small systems). */
   refine?: boolean;
+  /** Also give every node's impedance over the sweep grid (result.impedanceSweep). */
+  impedanceSweep?: boolean;
 }
 
 export interface AnalysisConditions {
@@ -77,6 +82,8 @@ export interface AnalysisResult {
   nodes: NodeRow[];
   octc: OctcResult | null;
   participation: PoleParticipation[];
+  /** Node impedances over the sweep grid, when asked for (AnalyzeOptions.impedanceSweep). */
+  impedanceSweep: ImpedanceSweep | null;
   /** Why a figure is null, keyed by the result field ("dcGain", "bandwidthHz", "zeros", ...). */
   reasons: Record<string, string>;
 }
@@ -85,7 +92,7 @@ function emptyResult(issues: EngineIssue[], conditions: AnalysisConditions): Ana
   return {
     ok: false, caution: SMALL_SIGNAL_CAUTION, conditions, issues: [...issues], unknowns: { nodes: 0, branches: 0 },
     poles: [], poleInfo: { infiniteCount: 0, originCount: 0, status: 'not-run' }, zeros: [], zeroInfo: { infiniteCount: 0, status: 'not-run' },
-    dcGain: null, bandwidthHz: null, unityGainHz: null, phaseAtUnityDeg: null, sweep: null, nodes: [], octc: null, participation: [], reasons: {},
+    dcGain: null, bandwidthHz: null, unityGainHz: null, phaseAtUnityDeg: null, sweep: null, nodes: [], octc: null, participation: [], impedanceSweep: null, reasons: {},
   };
 }
 
@@ -182,7 +189,11 @@ export function runAnalyses(sys: MnaSystem, issues: EngineIssue[], conditions: A
   if (zAt.reason) reasons.nodeImpedance = zAt.reason;
   res.nodes = nodeRows(sys, zDc, zAt.values, nodeTimeConstants(sys, zDc));
   res.octc = openCircuitTimeConstants(sys, dc);
-  res.participation = poleParticipation(sys, poles.poles, { reduction });
+  const vectors = poleVectors(sys, poles.poles, reduction);
+  res.participation = poleParticipation(sys, poles.poles, { vectors });
+  if (opts.impedanceSweep) {
+    res.impedanceSweep = impedanceSweep(sys, logGrid(range.fMin, range.fMax, range.perDecade), { poles: poles.poles, reduction, vectors });
+  }
   res.ok = !hasError(res.issues);
   return sanitize(res);
 }

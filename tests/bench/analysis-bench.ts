@@ -84,6 +84,9 @@ export function runAnalysisBench(print: (s: string) => void = console.log): Anal
   const part = time(() => poleParticipation(sys, p));
   print(`60 unknowns: transfer sweep (${sweepGrid.length} f) ${sweep.toFixed(2)} ms, node table (DC + one f) ${nodes.toFixed(2)} ms, OCTC ${octc.toFixed(2)} ms, participation of ${p.length} poles ${part.toFixed(2)} ms`);
   const full = rows.find((r) => r.unknowns === 60)!.ms;
+  const net60 = chainNetlist(58);
+  const fullZ = time(() => analyze(net60, { impedanceSweep: true, sweep: { fMin: 1e3, fMax: 1e12, perDecade: 11 } }));
+  print(`60 unknowns: analyze with impedanceSweep over 100 frequencies ${fullZ.toFixed(2)} ms (/16 ms = ${(fullZ / 16).toFixed(2)})`);
   const sweepZ = impedanceSweep(sys, grid, { poles: p });
   const impFast = time(() => impedanceSweep(sys, grid, { poles: p }));
   print(`60 unknowns: poles ${poles.toFixed(2)} ms, zeros ${zeros.toFixed(2)} ms, all node impedances at ${grid.length} frequencies: one LU per f ${imp.toFixed(2)} ms, impedanceSweep (${sweepZ.method}) ${impFast.toFixed(2)} ms`);

@@ -143,4 +143,24 @@ describe('analyze() conditions and bad input', () => {
     expect(r.sweep!.hz.length).toBeLessThanOrEqual(4001);
     expect(hasNonFinite(r)).toBe(false);
   });
+
+  it('impedanceSweep on request: every node over the sweep grid, equal to the direct solve (one LU per f)', async () => {
+    const { buildMna } = await import('../../src/engine/mna');
+    const { impedancesAt } = await import('../../src/engine/analyses/impedance');
+    const net = load('follower-sampling-load.json');
+    const r = analyze(net, { impedanceSweep: true });
+    const sw = r.impedanceSweep!;
+    expect(sw.hz).toEqual(r.sweep!.hz);
+    expect(sw.nodes).toEqual(r.nodes.map((n) => n.name));
+    const sys = buildMna(net).system!;
+    for (const i of [0, 17, sw.hz.length - 1]) {
+      const ref = impedancesAt(sys, { re: 0, im: 2 * Math.PI * sw.hz[i] }).values;
+      ref.forEach((z, k) => {
+        const got = sw.values[k][i]!;
+        expect(Math.hypot(got.re - z!.re, got.im - z!.im)).toBeLessThanOrEqual(1e-6 * Math.max(Math.hypot(z!.re, z!.im), 1e-3));
+      });
+    }
+    expect(hasNonFinite(r)).toBe(false);
+    expect(analyze(net).impedanceSweep).toBeNull();
+  });
 });

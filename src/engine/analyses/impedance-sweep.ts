@@ -9,11 +9,10 @@
 // equations) the direct solve is used for every frequency.
 
 import type { Cx, MnaSystem } from '../types';
-import { eigenvectorPair } from '../linalg/eigvec';
 import { solveReal } from '../linalg/lu';
 import { shiftedReduction, type ShiftedReduction } from './hessenberg';
 import { impedancesAt } from './impedance';
-import { modalSolver } from './modal';
+import { poleVectors, type ModalVectors } from './modal';
 import type { Pole } from './poles';
 
 export interface ImpedanceSweep {
@@ -30,27 +29,18 @@ const CHECK_TOL = 1e-7;
 
 interface ModalForm { lr: Float64Array; li: Float64Array; rr: Float64Array[]; ri: Float64Array[]; d: Float64Array }
 
-function buildModal(sys: Sys, poles: Pole[], red: ShiftedReduction): ModalForm | null {
-  const { n, nodeCount: nc, G, C } = sys;
-  const ms = modalSolver(G, C, n, red);
-  const A = new Float64Array(n * n);
-  for (let i = 0; i < n * n; i++) A[i] = -G[i];
+function buildModal(sys: Sys, poles: Pole[], red: ShiftedReduction, vectors?: ModalVectors[]): ModalForm | null {
+  const { n, nodeCount: nc, C } = sys;
+  const vs = vectors ?? poleVectors(sys, poles, red);
   const m = poles.length;
   const lr = new Float64Array(m), li = new Float64Array(m);
   const rr: Float64Array[] = [], ri: Float64Array[] = [];
-  const byPair = new Map<string, number>();
+  let cn = 0;
+  for (let k = 0; k < n * n; k++) cn = Math.max(cn, Math.abs(C[k]));
   for (let i = 0; i < m; i++) {
     const p = poles[i];
     lr[i] = p.re; li[i] = p.im;
-    const twin = byPair.get(`${p.re}:${-p.im}`);
-    if (p.im < 0 && twin !== undefined) {
-      rr.push(rr[twin]); ri.push(ri[twin].map((v) => -v));
-      continue;
-    }
-    byPair.set(`${p.re}:${p.im}`, i);
-    const lambda = { re: p.re, im: p.im };
-    const q = ms?.vectors(lambda) ?? null;
-    const v = q && q.residual <= 1e-12 && q.errorEstimate <= 1e-9 ? q : eigenvectorPair(A, C, n, lambda);
+    const v = vs[i];
     if (!(v.residual <= 1e-9)) return null;
     // d = yᴴ·C·x
     let dr = 0, di = 0, xs = 0, ys = 0;
@@ -63,8 +53,6 @@ function buildModal(sys: Sys, poles: Pole[], red: ShiftedReduction): ModalForm |
       ys += v.leftRe[r] ** 2 + v.leftIm[r] ** 2;
     }
     const dd = dr * dr + di * di;
-    let cn = 0;
-    for (let k = 0; k < n * n; k++) cn = Math.max(cn, Math.abs(C[k]));
     if (!(Math.sqrt(dd) > 1e-8 * cn * Math.sqrt(xs * ys))) return null; // (near) defective pole
     const a = new Float64Array(nc), b = new Float64Array(nc);
     for (let k = 0; k < nc; k++) {
@@ -108,7 +96,10 @@ function agrees(got: Cx | null, ref: Cx | null, floor: number): boolean {
   return Math.hypot(got.re - ref.re, got.im - ref.im) <= CHECK_TOL * Math.max(Math.hypot(ref.re, ref.im), floor);
 }
 
-export function impedanceSweep(sys: Sys, freqsHz: ArrayLike<number>, opts: { poles?: Pole[]; reduction?: ShiftedReduction | null } = {}): ImpedanceSweep {
+export function impedanceSweep(
+  sys: Sys, freqsHz: ArrayLike<number>,
+  opts: { poles?: Pole[]; reduction?: ShiftedReduction | null; vectors?: ModalVectors[] } = {},
+): ImpedanceSweep {
   const hz = Array.from(freqsHz);
   const nodes = sys.nodeNames.slice(0, sys.nodeCount);
   const direct = (): ImpedanceSweep => {
@@ -121,7 +112,7 @@ export function impedanceSweep(sys: Sys, freqsHz: ArrayLike<number>, opts: { pol
   };
   const red = opts.reduction === undefined ? shiftedReduction(sys.G, sys.C, sys.n) : opts.reduction;
   if (!red || !opts.poles || hz.length < 4) return direct();
-  const form = buildModal(sys, opts.poles, red);
+  const form = buildModal(sys, opts.poles, red, opts.vectors);
   if (!form) return direct();
   // Check the modal form against the direct solve at two frequencies of the grid.
   for (const f of [hz[Math.floor(hz.length / 3)], hz[Math.floor((2 * hz.length) / 3)]]) {

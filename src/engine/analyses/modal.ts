@@ -8,6 +8,7 @@
 // eigenvalue 0 of M: the residual stays small but small entries lose accuracy).
 
 import { solveRealTransposed, type RealLU } from '../linalg/lu';
+import { eigenvectorPair } from '../linalg/eigvec';
 import { shiftedReduction, type ShiftedReduction } from './hessenberg';
 
 export interface ModalVectors {
@@ -177,4 +178,38 @@ export function modalSolver(G: Float64Array, C: Float64Array, n: number, reducti
       return { rightRe: xr, rightIm: xi, leftRe: yr, leftIm: yi, residual: Number.isFinite(residual) ? residual : Infinity, errorEstimate };
     },
   };
+}
+
+/** The shared-reduction vectors are used only when they are this good; otherwise the full solve. */
+const FAST_RESIDUAL_OK = 1e-12;
+const FAST_ERROR_OK = 1e-9;
+
+/** Right/left vectors of every pole (one entry per pole, conjugate pairs as exact conjugates):
+ *  from the shared reduction when reliable, else by full inverse iteration (linalg/eigvec). */
+export function poleVectors(
+  sys: { n: number; G: Float64Array; C: Float64Array },
+  poles: { re: number; im: number }[],
+  reduction?: ShiftedReduction | null,
+): ModalVectors[] {
+  const { n, G, C } = sys;
+  const ms = poles.length > 0 ? modalSolver(G, C, n, reduction) : null;
+  let A: Float64Array | null = null;
+  const out: ModalVectors[] = [];
+  const byPair = new Map<string, number>();
+  poles.forEach((p, i) => {
+    const twin = p.im < 0 ? byPair.get(`${p.re}:${-p.im}`) : undefined;
+    if (twin !== undefined) {
+      const t = out[twin];
+      out.push({ ...t, rightIm: t.rightIm.map((v) => -v), leftIm: t.leftIm.map((v) => -v) });
+      return;
+    }
+    byPair.set(`${p.re}:${p.im}`, i);
+    const lambda = { re: p.re, im: p.im };
+    const q = ms?.vectors(lambda) ?? null;
+    if (q && q.residual <= FAST_RESIDUAL_OK && q.errorEstimate <= FAST_ERROR_OK) { out.push(q); return; }
+    if (!A) { A = new Float64Array(n * n); for (let k = 0; k < n * n; k++) A[k] = -G[k]; }
+    const e = eigenvectorPair(A, C, n, lambda);
+    out.push({ ...e, errorEstimate: 0 });
+  });
+  return out;
 }

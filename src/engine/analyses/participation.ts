@@ -6,10 +6,9 @@
 // is small, else from a full inverse iteration per pole (linalg/eigvec).
 
 import type { MnaSystem } from '../types';
-import { eigenvectorPair } from '../linalg/eigvec';
 import type { Pole } from './poles';
 import type { ShiftedReduction } from './hessenberg';
-import { modalSolver } from './modal';
+import { poleVectors, type ModalVectors } from './modal';
 
 export interface NodeShare {
   node: string;
@@ -26,20 +25,15 @@ export interface PoleParticipation {
 }
 
 const RESIDUAL_OK = 1e-6;
-/** The shared-reduction vectors are used only when they are this good; otherwise the full solve. */
-const FAST_RESIDUAL_OK = 1e-12;
-const FAST_ERROR_OK = 1e-8;
 
 export function poleParticipation(
   sys: Pick<MnaSystem, 'n' | 'nodeCount' | 'nodeNames' | 'G' | 'C'>,
   poles: Pole[],
-  opts: { top?: number; reduction?: ShiftedReduction | null } = {},
+  opts: { top?: number; reduction?: ShiftedReduction | null; vectors?: ModalVectors[] } = {},
 ): PoleParticipation[] {
-  const { n, nodeCount, nodeNames, G, C } = sys;
+  const { n, nodeCount, nodeNames } = sys;
   const top = opts.top ?? 3;
-  const A = new Float64Array(n * n);
-  for (let i = 0; i < n * n; i++) A[i] = -G[i];
-  const modal = poles.length > 0 ? modalSolver(G, C, n, opts.reduction) : null;
+  const vectors = opts.vectors ?? poleVectors(sys, poles, opts.reduction);
   const out: PoleParticipation[] = [];
   const byPair = new Map<string, PoleParticipation>();
   poles.forEach((p, idx) => {
@@ -47,10 +41,7 @@ export function poleParticipation(
     const key = `${p.re}:${Math.abs(p.im)}`;
     const twin = byPair.get(key);
     if (twin) { out.push({ ...twin, pole: idx }); return; }
-    const lambda = { re: p.re, im: p.im };
-    const quick = modal?.vectors(lambda) ?? null;
-    const good = quick !== null && quick.residual <= FAST_RESIDUAL_OK && quick.errorEstimate <= FAST_ERROR_OK;
-    const v = good ? quick : eigenvectorPair(A, C, n, lambda);
+    const v = vectors[idx];
     const w = new Float64Array(nodeCount);
     let sumLR = 0, normX = 0, normY = 0;
     for (let k = 0; k < n; k++) {

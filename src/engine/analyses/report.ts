@@ -68,7 +68,11 @@ const MAX_POINTS = 4000;
 
 /** Sweep range: the caller's, else two decades beyond the poles and zeros, decade-aligned. */
 export function chooseSweep(req: { fMin?: number; fMax?: number; perDecade?: number } | undefined, poles: Pole[], zeros: Zero[]): SweepRange {
-  const fs = [...poles, ...zeros].map((p) => p.hz).filter((f) => f > 0 && Number.isFinite(f));
+  const ok = (f: number) => f > 0 && Number.isFinite(f);
+  const ph = poles.map((p) => p.hz).filter(ok);
+  // Zeros far outside the pole span (often ill-determined near-infinite ones) do not stretch the range.
+  const pLo = ph.length ? Math.min(...ph) / 1e4 : 0, pHi = ph.length ? Math.max(...ph) * 1e4 : Infinity;
+  const fs = [...ph, ...zeros.map((z) => z.hz).filter((f) => ok(f) && f >= pLo && f <= pHi)];
   let lo = fs.length ? Math.min(...fs) / 100 : 1;
   let hi = fs.length ? Math.max(...fs) * 100 : 1e9;
   lo = Math.pow(10, Math.floor(Math.log10(lo)));
