@@ -32,7 +32,7 @@ export function partValueText(part: PartRecord, sym: SymbolDef): string {
     if ((part.mode ?? 'bias') === 'direct') return get('gm') ? `gm ${withUnit(get('gm'), 'S')}` : '';
     const id = get('id');
     const wl = get('w') && get('l') ? `${get('w')}/${get('l')}` : '';
-    return [id && withUnit(id, 'A'), wl].filter(Boolean).join('  ');
+    return [id && withUnit(id, 'A'), wl].filter(Boolean).join('\n');
   }
   if (part.kind === 'npn' || part.kind === 'pnp') return get('ic') ? `Ic ${withUnit(get('ic'), 'A')}` : '';
   if (part.kind === 'amplifier') return get('A0') ? `A0 ${get('A0')}` : '';

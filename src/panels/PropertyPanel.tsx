@@ -29,7 +29,7 @@ function paramCheck(spec: SymbolParam): (text: string) => FieldCheck {
 }
 
 const MODE_LABEL: Record<ParamMode, string> = { bias: 'Bias point', direct: 'Small-signal' };
-const BULK_LABEL: Record<BulkTie, string> = { source: 'tied to source', rail: 'tied to its rail (AC ground)', pin: 'own pin (wire it)' };
+const BULK_LABEL: Record<BulkTie, string> = { source: 'to source', rail: 'to its rail', pin: 'own pin, wired' };
 
 function PartInspector({ editor, part, drafts, setDraft }: { editor: Editor; part: PartRecord; drafts: Drafts; setDraft: Props['setDraft'] }) {
   const sym = symbolOf(part.kind);
@@ -69,6 +69,7 @@ function PartInspector({ editor, part, drafts, setDraft }: { editor: Editor; par
           <select id={`${part.id}-bulk`} value={part.bulk ?? 'source'} onChange={(e) => editor.updatePart(part.id, { bulk: e.target.value as BulkTie })}>
             {(Object.keys(BULK_LABEL) as BulkTie[]).map((b) => <option key={b} value={b}>{BULK_LABEL[b]}</option>)}
           </select>
+          <div className="note">{part.bulk === 'pin' ? 'Wire the b pin; gmb and Csb act on its net.' : part.bulk === 'rail' ? 'The rail is AC ground in the small-signal model.' : 'No body effect: vbs = 0.'}</div>
         </div>
       )}
       {(part.kind === 'vsource' || part.kind === 'isource') && (

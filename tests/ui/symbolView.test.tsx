@@ -91,6 +91,6 @@ describe('symbol view', () => {
     expect(partValueText(r, SYMBOLS.resistor)).toBe('4.7 kΩ');
     const m = newPart('nmos', 'part:m1', 'M1', { x: 0, y: 0 });
     m.params = { ...m.params, id: '50u', w: '8u', l: '1u' };
-    expect(partValueText(m, SYMBOLS.nmos)).toBe('50 µA  8u/1u');
+    expect(partValueText(m, SYMBOLS.nmos)).toBe('50 µA\n8u/1u');
   });
 });
