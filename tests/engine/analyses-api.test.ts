@@ -163,4 +163,50 @@ describe('analyze() conditions and bad input', () => {
     expect(hasNonFinite(r)).toBe(false);
     expect(analyze(net).impedanceSweep).toBeNull();
   });
+
+  it('current output: the source branch current into R is −1/R per volt (MNA branch-current convention, types.ts)', () => {
+    const net: Netlist = {
+      format: 'polesketch-netlist', version: 1, input: 'V1', output: { kind: 'current', part: 'V1' },
+      parts: [
+        { name: 'V1', kind: 'vsource', pins: { p: 'a', n: '0' }, values: {} },
+        { name: 'R1', kind: 'resistor', pins: { p: 'a', n: '0' }, values: { value: '2k' } },
+      ],
+    };
+    const r = analyze(net);
+    expect(r.ok).toBe(true);
+    expect(r.dcGain! * 2e3).toBeCloseTo(-1, 12);
+  });
+
+  it('no input chosen: poles and nodes are computed, the transfer figures are null with reasons', () => {
+    const net = load('sensor-cs-miller.json');
+    delete net.input;
+    delete net.output; // an output without an input is a structural error (structure.ts)
+    const r = analyze(net);
+    expect(r.ok).toBe(true);
+    expect(r.poles.length).toBe(2);
+    expect(r.dcGain).toBeNull();
+    expect(r.reasons.dcGain).toMatch(/no input/);
+    expect(r.sweep).toBeNull();
+    expect(r.zeroInfo.status).toBe('no-input');
+    expect(r.nodes.length).toBe(3);
+  });
+
+  it('an undamped LC tank: poles ±j/√(LC), Q reported as null (unbounded), never Infinity (common practice)', () => {
+    const net: Netlist = {
+      format: 'polesketch-netlist', version: 1, input: 'I1', output: { kind: 'voltage', node: 't' },
+      parts: [
+        { name: 'I1', kind: 'isource', pins: { p: 't', n: '0' }, values: {} },
+        { name: 'L1', kind: 'inductor', pins: { p: 't', n: '0' }, values: { value: '1u' } },
+        { name: 'C1', kind: 'capacitor', pins: { p: 't', n: '0' }, values: { value: '1n' } },
+      ],
+    };
+    const r = analyze(net);
+    expect(r.ok).toBe(true);
+    expect(r.poles.length).toBe(2);
+    for (const p of r.poles) {
+      expect(Math.abs(p.re)).toBeLessThan(1e-6 * p.omegaN);
+      expect(p.omegaN * Math.sqrt(1e-6 * 1e-9)).toBeCloseTo(1, 9);
+    }
+    expect(hasNonFinite(r)).toBe(false);
+  });
 });
