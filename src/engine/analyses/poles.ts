@@ -16,7 +16,8 @@ export interface Pole {
   hz: number;
   /** Natural frequency |λ| in rad/s. */
   omegaN: number;
-  /** ωn/(2·|re|) for a complex pair; null for real poles and for undamped (re = 0) pairs. */
+  /** ωn/(2·|re|) for a complex pair; null for real poles and for undamped pairs (|re| at
+   *  roundoff level, reported as re = 0). */
   q: number | null;
   kind: 'origin' | 'real' | 'complex';
   /** Right half plane (re > 0): the small-signal model is unstable about this bias point. */
@@ -34,13 +35,16 @@ export interface PoleResult {
 
 /** Relative size below which an imaginary part is treated as zero (QZ roundoff on real poles). */
 const REAL_TOL = 1e-12;
+const UNDAMPED_TOL = 1e-11;
 
 export function describePole(re: number, im: number, origin = false): Pole {
   if (origin) return { re: 0, im: 0, hz: 0, omegaN: 0, q: null, kind: 'origin', rhp: false };
   const w = Math.hypot(re, im);
   const complex = Math.abs(im) > REAL_TOL * w;
-  const q = complex && re !== 0 ? w / (2 * Math.abs(re)) : null;
-  return { re, im: complex ? im : 0, hz: w / (2 * Math.PI), omegaN: w, q, kind: complex ? 'complex' : 'real', rhp: re > 0 };
+  // A pair whose real part is at roundoff level is undamped (lossless LC): Q unbounded → null.
+  const undamped = complex && Math.abs(re) <= UNDAMPED_TOL * w;
+  const q = complex && !undamped ? w / (2 * Math.abs(re)) : null;
+  return { re: undamped ? 0 : re, im: complex ? im : 0, hz: w / (2 * Math.PI), omegaN: w, q, kind: complex ? 'complex' : 'real', rhp: !undamped && re > 0 };
 }
 
 /** Polishing each eigenvalue on the original pencil costs one LU per eigenvalue (O(n⁴) in all);
