@@ -17,7 +17,7 @@ import { nodeTimeConstants, openCircuitTimeConstants, type OctcResult } from './
 import { poleParticipation, type PoleParticipation } from './analyses/participation';
 import { poleVectors } from './analyses/modal';
 import { impedanceSweep, type ImpedanceSweep } from './analyses/impedance-sweep';
-import { chooseSweep, nodeRows, resolveSwitches, sanitize, singularIssue, type NodeRow, type SweepRange } from './analyses/report';
+import { chooseSweep, nodeRows, resolveSwitches, sanitize, degenerateDcIssue, type NodeRow, type SweepRange } from './analyses/report';
 
 export type * from './types';
 export type { Pole, PoleResult } from './analyses/poles';
@@ -137,10 +137,7 @@ export function runAnalyses(sys: MnaSystem, issues: EngineIssue[], conditions: A
   res.unknowns = { nodes: sys.nodeCount, branches: sys.n - sys.nodeCount };
   const reasons = res.reasons;
   const dc = factorDc(sys);
-  if (dc.status === 'singular-pencil') {
-    res.issues = [...issues, singularIssue(sys, dc)];
-    return sanitize(res);
-  }
+  if (dc.status === 'degenerate') res.issues.push(degenerateDcIssue(sys, dc));
   const poles = computePoles(sys, dc, { refine: opts.refine });
   res.poles = poles.poles;
   res.poleInfo = { infiniteCount: poles.infiniteCount, originCount: poles.originCount, status: poles.status };

@@ -211,4 +211,25 @@ describe('analyze() conditions and bad input', () => {
     }
     expect(hasNonFinite(r)).toBe(false);
   });
+
+  it('cascaded ideal integrators (double pole at s = 0): numbers where defined, DC figures empty with a named warning', () => {
+    const net: Netlist = {
+      format: 'polesketch-netlist', version: 1, input: 'V1', output: { kind: 'voltage', node: 'y' },
+      parts: [
+        { name: 'V1', kind: 'vsource', pins: { p: 'in', n: '0' }, values: {} },
+        { name: 'G1', kind: 'vccs', pins: { p: 'x', n: '0', cp: 'in', cn: '0' }, values: { gm: '1m' } },
+        { name: 'C1', kind: 'capacitor', pins: { p: 'x', n: '0' }, values: { value: '1p' } },
+        { name: 'G2', kind: 'vccs', pins: { p: 'y', n: '0', cp: 'x', cn: '0' }, values: { gm: '1m' } },
+        { name: 'C2', kind: 'capacitor', pins: { p: 'y', n: '0' }, values: { value: '1p' } },
+      ],
+    };
+    const r = analyze(net);
+    expect(r.ok).toBe(true);
+    expect(r.issues.some((i) => i.severity === 'warning' && i.node === 'y')).toBe(true);
+    expect(r.poles.map((p) => p.kind)).toEqual(['origin', 'origin']);
+    expect(r.dcGain).toBeNull();
+    // H = gm²/(sC)²: |H| = 1 at gm/(2πC) ≈ 159 MHz (common practice).
+    expect(r.unityGainHz! / (1e-3 / (2 * Math.PI * 1e-12))).toBeCloseTo(1, 8);
+    expect(hasNonFinite(r)).toBe(false);
+  });
 });

@@ -11,7 +11,10 @@
 import type { MnaSystem } from '../types';
 import { luReal, type RealLU } from '../linalg/lu';
 
-export type DcStatus = 'regular' | 'integrating' | 'singular-pencil';
+/** 'degenerate': G is singular but the simple model above does not apply (K singular: a repeated
+ *  pole at s = 0 such as cascaded integrators, or left/right null spaces of different size
+ *  numerically); DC figures are then undefined rather than computed. */
+export type DcStatus = 'regular' | 'integrating' | 'degenerate';
 
 export interface DcFactor {
   n: number;
@@ -134,7 +137,7 @@ export function factorDc(sys: Pick<MnaSystem, 'n' | 'G' | 'C'>): DcFactor {
   let status: DcStatus = 'integrating';
   let kInv: Float64Array = new Float64Array(0);
   if (left.length !== m) {
-    status = 'singular-pencil';
+    status = 'degenerate';
   } else {
     const K = new Float64Array(m * m);
     for (let j = 0; j < m; j++) {
@@ -142,7 +145,7 @@ export function factorDc(sys: Pick<MnaSystem, 'n' | 'G' | 'C'>): DcFactor {
       for (let i = 0; i < m; i++) K[i * m + j] = dot(left[i], cw);
     }
     const inv = invertSmall(K, m);
-    if (inv) kInv = inv; else status = 'singular-pencil';
+    if (inv) kInv = inv; else status = 'degenerate';
   }
   return { n, lu, status, right, left, kInv, pivotTol, C };
 }
@@ -154,11 +157,11 @@ export interface DcSolution {
   pole: Float64Array;
 }
 
-/** Response to u at s → 0. Returns null when the pencil itself is singular. */
+/** Response to u at s → 0. Returns null when the DC behaviour is degenerate (see DcStatus). */
 export function dcSolve(f: DcFactor, u: Float64Array): DcSolution | null {
   const { n } = f;
   if (f.status === 'regular') return { x: solveFree(f.lu, u, f.pivotTol), pole: new Float64Array(n) };
-  if (f.status === 'singular-pencil') return null;
+  if (f.status === 'degenerate') return null;
   const m = f.right.length;
   const vu = f.left.map((v) => dot(v, u));
   const a = new Float64Array(m);

@@ -24,7 +24,7 @@ export function dcImpedances(sys: ImpedanceSys, dc: DcFactor = factorDc(sys)): D
     e[k] = 1;
     const r = dcBilinear(dc, e, e);
     if (r.unbounded) out.push({ ohms: null, openAtDc: true, reason: 'open at DC: the node reaches ground only through capacitors' });
-    else if (r.value === null) out.push({ ohms: null, openAtDc: false, reason: 'the circuit equations are singular at DC' });
+    else if (r.value === null) out.push({ ohms: null, openAtDc: false, reason: 'undefined at DC: a repeated pole at s = 0 (e.g. cascaded integrators) or degenerate DC equations' });
     else out.push({ ohms: r.value, openAtDc: false });
   }
   return out;

@@ -51,7 +51,7 @@ export function openCircuitTimeConstants(sys: OctcSys, dc: DcFactor = factorDc(s
     if (tau !== null) sum += tau;
     caps.push({ part: el.part, role: el.role, nodes: [nodeName(sys, el.a), nodeName(sys, el.b)], farads: el.c, ohms, tau });
   }
-  if (singular) return { caps, sumTau: null, bandwidthHz: null, reason: 'the circuit equations are singular at DC' };
+  if (singular) return { caps, sumTau: null, bandwidthHz: null, reason: 'undefined at DC: a repeated pole at s = 0 (e.g. cascaded integrators) or degenerate DC equations' };
   if (unbounded) return { caps, sumTau: null, bandwidthHz: null, reason: 'a capacitor sees an unbounded resistance (a pole at s = 0), so Στ is unbounded' };
   if (!(sum > 0)) return { caps, sumTau: sum, bandwidthHz: null, reason: caps.length ? 'Στ is not positive' : 'no capacitors' };
   return { caps, sumTau: sum, bandwidthHz: 1 / (2 * Math.PI * sum) };

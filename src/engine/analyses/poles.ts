@@ -38,7 +38,7 @@ const REAL_TOL = 1e-12;
 const UNDAMPED_TOL = 1e-11;
 
 export function describePole(re: number, im: number, origin = false): Pole {
-  if (origin) return { re: 0, im: 0, hz: 0, omegaN: 0, q: null, kind: 'origin', rhp: false };
+  if (origin || (re === 0 && im === 0)) return { re: 0, im: 0, hz: 0, omegaN: 0, q: null, kind: 'origin', rhp: false };
   const w = Math.hypot(re, im);
   const complex = Math.abs(im) > REAL_TOL * w;
   // A pair whose real part is at roundoff level is undamped (lossless LC): Q unbounded → null.
@@ -60,8 +60,9 @@ export function computePoles(sys: Pick<MnaSystem, 'n' | 'G' | 'C'>, dc: DcFactor
   if (eig.status !== 'ok') {
     return { poles: [], infiniteCount: eig.infiniteCount, originCount: 0, status: 'no-convergence', reason: 'the eigenvalue iteration did not converge' };
   }
-  const origin = dc.status === 'integrating' ? Math.min(dc.right.length, eig.values.length) : 0;
+  const origin = dc.status !== 'regular' ? Math.min(dc.right.length, eig.values.length) : 0;
   // Values come sorted by |λ|: the first `origin` ones are the integrators.
   const poles = eig.values.map((v, i) => describePole(v.re, v.im, i < origin));
-  return { poles, infiniteCount: eig.infiniteCount, originCount: origin, status: 'ok' };
+  const originCount = poles.filter((p) => p.kind === 'origin').length;
+  return { poles, infiniteCount: eig.infiniteCount, originCount, status: 'ok' };
 }

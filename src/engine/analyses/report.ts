@@ -109,8 +109,8 @@ export function nodeRows(sys: Pick<MnaSystem, 'nodeNames'>, zDc: DcImpedance[], 
   });
 }
 
-/** Name the unknowns that carry the null directions of a singular system. */
-export function singularIssue(sys: Pick<MnaSystem, 'nodeNames' | 'branchNames' | 'nodeCount'>, dc: DcFactor): EngineIssue {
+/** Warning for a degenerate DC solution (see DcStatus), naming the unknowns involved. */
+export function degenerateDcIssue(sys: Pick<MnaSystem, 'nodeNames' | 'branchNames' | 'nodeCount'>, dc: DcFactor): EngineIssue {
   const names = new Set<string>();
   for (const w of dc.right) {
     w.forEach((v, i) => {
@@ -118,8 +118,9 @@ export function singularIssue(sys: Pick<MnaSystem, 'nodeNames' | 'branchNames' |
     });
   }
   const list = [...names].slice(0, 6).join(', ');
-  return { severity: 'error', code: 'singular', node: sys.nodeNames[0],
-    message: `the circuit equations have no unique solution at any frequency${list ? ` (involving ${list})` : ''}` };
+  const first = [...names][0]?.match(/node "(.*)"/)?.[1];
+  return { severity: 'warning', code: 'singular', ...(first ? { node: first } : {}),
+    message: `DC figures are left empty: a repeated pole at s = 0 (e.g. cascaded integrators) or degenerate DC equations${list ? ` (involving ${list})` : ''}` };
 }
 
 /** Replace any non-finite number by null (and say where), so the result is JSON-safe. */

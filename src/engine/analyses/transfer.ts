@@ -24,7 +24,7 @@ export function dcTransfer(sys: TransferSys, dc: DcFactor = factorDc(sys)): DcTr
   if (isZeroVector(sys.c)) return { value: null, status: 'no-output', reason: 'no output chosen' };
   const r = dcBilinear(dc, sys.c, sys.b);
   if (r.unbounded) return { value: null, status: 'unbounded', reason: 'a pole at s = 0 (ideal integrator) makes the DC gain unbounded' };
-  if (r.value === null) return { value: null, status: 'singular', reason: 'the circuit equations are singular at DC' };
+  if (r.value === null) return { value: null, status: 'singular', reason: 'undefined at DC: a repeated pole at s = 0 (e.g. cascaded integrators) or degenerate DC equations' };
   return { value: r.value, status: 'ok' };
 }
 
