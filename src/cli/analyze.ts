@@ -57,7 +57,7 @@ export async function loadAnyDocument(json: unknown): Promise<LoadedDocument> {
 }
 
 const hz = (v: number | null) => (v === null ? '—' : formatSi(v, 'Hz'));
-const ohm = (v: number | null) => (v === null ? 'open' : formatSi(v, 'Ω'));
+const ohm = (v: number | null, open: boolean) => (v === null ? (open ? 'open' : '—') : formatSi(v, 'Ω'));
 const pad = (s: string, w: number) => (s.length >= w ? s : s + ' '.repeat(w - s.length));
 
 function printText(file: string, title: string | undefined, r: AnalysisResult, out: (s: string) => void): void {
@@ -96,7 +96,7 @@ function printText(file: string, title: string | undefined, r: AnalysisResult, o
   for (const n of r.nodes) {
     const tau = n.tau === null ? (n.openAtDc ? '∞' : '—') : formatSi(n.tau, 's');
     const pole = n.poleHz === null ? '—' : n.openAtDc ? '0 (integrator)' : hz(n.poleHz);
-    out(`  ${pad(n.internal ? `(${n.name})` : n.name, 14)}${pad(ohm(n.dcOhms), 12)}${pad(n.z ? formatSi(n.z.mag, 'Ω') : '—', 12)}${pad(formatSi(n.farads, 'F'), 11)}${pad(tau, 11)}${pole}${n.slowest ? '   ← slowest' : ''}`);
+    out(`  ${pad(n.internal ? `(${n.name})` : n.name, 14)}${pad(ohm(n.dcOhms, n.openAtDc), 12)}${pad(n.z ? formatSi(n.z.mag, 'Ω') : '—', 12)}${pad(formatSi(n.farads, 'F'), 11)}${pad(tau, 11)}${pole}${n.slowest ? '   ← slowest' : ''}`);
   }
   if (r.nodes.some((n) => n.internal)) out('  (names in parentheses are nodes inside a part model)');
   const warnings = r.issues.filter((i) => i.severity === 'warning');
