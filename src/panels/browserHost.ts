@@ -74,7 +74,8 @@ export function useBrowserHost({ editor, storage, examples, setBanner, onSaved }
   const openText = useCallback((text: string, name: string) => {
     const r = loadDrawing(text);
     if (!r.ok) {
-      setBanner({ kind: 'error', text: `${name} was not opened: ${r.reason} Your current drawing is unchanged.` });
+      const kept = /unchanged|nothing was changed/i.test(r.reason) ? '' : ' Your current drawing is unchanged.';
+      setBanner({ kind: 'error', text: `${name} was not opened: ${r.reason}${kept}` });
       return;
     }
     editor.load(r.doc, { label: `Open ${name}` });
