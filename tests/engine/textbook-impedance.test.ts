@@ -2,6 +2,7 @@ import { describe, it, expect } from 'vitest';
 import { Hand } from './analyses-handmna';
 import { dcImpedances } from '../../src/engine/analyses/impedance';
 import { openCircuitTimeConstants, nodeTimeConstants } from '../../src/engine/analyses/octc';
+import { computePoles } from '../../src/engine/analyses/poles';
 
 // Small-signal MOS as in types.ts: VCCS gm·(v(g) − v(s)) from d to s, gmb·(v(b) − v(s)) from d to
 // s, ro = 1/gds between d and s.
@@ -106,4 +107,36 @@ describe('open-circuit time constants of a common-source stage', () => {
     const rows = nodeTimeConstants(s2, dcImpedances(s2));
     expect(rows.find((x) => x.node === 'x')).toMatchObject({ ohms: null, tau: null, poleHz: 0, slowest: true });
   });
+});
+
+describe('open-circuit time constants and the poles', () => {
+  // Gray & Searle 1969: Στ over all capacitors equals b1, the s-coefficient of
+  // det(G + sC)/det(G) = Π(1 − s/p_i), so Στ = −Σ 1/p_i over the finite poles.
+  function rng(seed: number) {
+    return () => {
+      seed |= 0; seed = (seed + 0x6d2b79f5) | 0;
+      let t = Math.imul(seed ^ (seed >>> 15), 1 | seed);
+      t = (t + Math.imul(t ^ (t >>> 7), 61 | t)) ^ t;
+      return ((t ^ (t >>> 14)) >>> 0) / 4294967296; // mulberry32, common practice
+    };
+  }
+  for (const seed of [1, 2, 3]) {
+    it(`random active RC network ${seed}: Στ = −Σ 1/p`, () => {
+      const r = rng(seed);
+      const h = new Hand().V('vin', 'in', '0').R('rin', 'in', 'a0', 1e3 + 1e4 * r());
+      const nodes = ['a0', 'a1', 'a2', 'a3', 'a4', 'a5'];
+      nodes.forEach((a, i) => {
+        const b = nodes[(i + 1) % nodes.length];
+        h.R(`rg${i}`, a, '0', 1e3 + 1e5 * r()).C(`cg${i}`, a, '0', 1e-13 + 1e-12 * r());
+        h.C(`cc${i}`, a, b, 1e-14 + 1e-13 * r());
+        h.G(`g${i}`, b, '0', a, '0', 2e-5 * r());
+      });
+      const sys = h.build('vin', 'a5');
+      const sumTau = openCircuitTimeConstants(sys).sumTau!;
+      const poles = computePoles(sys).poles;
+      let b1 = 0;
+      for (const p of poles) b1 += -p.re / (p.re * p.re + p.im * p.im); // Re(−1/p), pairs add up real
+      expect(sumTau / b1).toBeCloseTo(1, 9);
+    });
+  }
 });
