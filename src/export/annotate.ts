@@ -1,0 +1,81 @@
+// Analysis result + drawing → the annotation data (annotations.ts) that the SVG export and the
+// canvas overlay both draw. DOM-free and deterministic.
+
+import type { AnalysisResult, NodeRow } from '../engine/index';
+import { formatSi, SMALL_SIGNAL_CAUTION } from '../engine/index';
+import type { DrawingDocument, Point } from '../schematic/document';
+import { computeConnectivity, GROUND_NET, type NetInfo } from '../schematic/connectivity';
+import type { Badge, SchematicAnnotations } from './annotations';
+import { DEFAULT_SCALE, impedanceColor, legendStops, NO_VALUE_COLOR, scaleFor, type ImpedanceScale } from './colorScale';
+
+export interface AnnotateSettings {
+  /** Which |Z| colours the nets: at the analysis frequency (default) or at DC. */
+  column?: 'frequency' | 'dc';
+  /** Colour scale: fixed, or 'auto' (whole decades around the nodes' values, the default). */
+  scale?: ImpedanceScale | 'auto';
+  /** The selected loop: its nets in order (as the feedback analysis lists them). */
+  loop?: { id: string; label: string; nets: string[] } | null;
+  /** Which nets get a badge (default all analysed nets). */
+  badges?: 'all' | 'none' | string[];
+}
+
+/** |Z| of a node row in the chosen column. */
+export function rowOhms(row: NodeRow, column: 'frequency' | 'dc'): number | null {
+  if (column === 'dc') return row.openAtDc ? null : row.dcOhms;
+  return row.z ? row.z.mag : null;
+}
+
+/** A point on the net to hang marks on: the middle of its longest wire segment (on the grid),
+ *  else its first pin. */
+export function netAnchor(doc: DrawingDocument, net: NetInfo): Point {
+  let best: { len: number; p: Point } | null = null;
+  for (const id of [...net.wires].sort()) {
+    const pts = doc.wires[id]?.points ?? [];
+    for (let i = 1; i < pts.length; i++) {
+      const a = pts[i - 1], b = pts[i];
+      const len = Math.abs(a.x - b.x) + Math.abs(a.y - b.y);
+      if (!best || len > best.len) best = { len, p: { x: Math.round((a.x + b.x) / 20) * 10, y: Math.round((a.y + b.y) / 20) * 10 } };
+    }
+  }
+  return best ? best.p : { x: net.anchor.x, y: net.anchor.y };
+}
+
+export function annotate(doc: DrawingDocument, result: AnalysisResult | null, settings: AnnotateSettings = {}): SchematicAnnotations {
+  const column = settings.column ?? 'frequency';
+  const out: SchematicAnnotations = { nets: {}, badges: [], slowest: null, loop: null, legend: null, caution: SMALL_SIGNAL_CAUTION };
+  if (!result || !result.ok) return out;
+  const conn = computeConnectivity(doc);
+  const byName = new Map(conn.nets.map((n) => [n.name, n]));
+  const rows = result.nodes.filter((r) => !r.internal && byName.has(r.name) && r.name !== GROUND_NET);
+  const scale = settings.scale === undefined || settings.scale === 'auto' ? scaleFor(rows.map((r) => rowOhms(r, column))) : settings.scale;
+  const anchors = new Map<string, Point>();
+  const anchorOf = (name: string) => {
+    if (!anchors.has(name)) anchors.set(name, netAnchor(doc, byName.get(name)!));
+    return anchors.get(name)!;
+  };
+  const wanted = settings.badges ?? 'all';
+  const fz = result.conditions.frequencyHz;
+  for (const r of rows) {
+    const ohms = rowOhms(r, column);
+    out.nets[r.name] = { net: r.name, color: impedanceColor(ohms, scale), ohms };
+    if (wanted === 'none' || (Array.isArray(wanted) && !wanted.includes(r.name))) continue;
+    const z = ohms === null ? (column === 'dc' && r.openAtDc ? 'open at DC' : '—') : formatSi(ohms, 'Ω');
+    const lines = [`${r.name}: |Z| ${z}`];
+    if (r.farads > 0) lines.push(`C ${formatSi(r.farads, 'F')}`);
+    if (r.tau !== null) lines.push(`τ ${formatSi(r.tau, 's')}`);
+    const badge: Badge = { net: r.name, lines, anchor: anchorOf(r.name) };
+    out.badges.push(badge);
+  }
+  const slow = rows.find((r) => r.slowest);
+  if (slow) {
+    const pole = slow.openAtDc ? 'integrator' : slow.poleHz !== null ? formatSi(slow.poleHz, 'Hz') : '—';
+    out.slowest = { net: slow.name, anchor: anchorOf(slow.name), label: `slowest node ${slow.name}: ${pole}` };
+  }
+  if (settings.loop) {
+    const pts = settings.loop.nets.filter((n) => byName.has(n)).map((n) => anchorOf(n));
+    if (pts.length > 0) out.loop = { loopId: settings.loop.id, label: settings.loop.label, points: [...pts, pts[0]] };
+  }
+  const what = column === 'dc' ? 'at DC' : fz !== null ? `at ${formatSi(fz, 'Hz')}` : '';
+  out.legend = { title: `node |Z| ${what}`.trim(), stops: legendStops(scale ?? DEFAULT_SCALE), noValueColor: NO_VALUE_COLOR, noValueLabel: 'open / not computed' };
+  return out;
+}

@@ -1,0 +1,67 @@
+// The analysis marks laid over a schematic, as plain data: the SVG writer draws them, and the live
+// canvas overlay can draw the very same data (computed by annotate.ts), so both always agree.
+import type { Point } from '../schematic/document';
+import type { LegendStop } from './colorScale';
+
+export interface NetMark {
+  net: string;
+  /** Wire colour from the impedance scale (#rrggbb). */
+  color: string;
+  /** |Z| used for the colour (ohms), null when undefined (open at DC, not computed). */
+  ohms: number | null;
+}
+
+export interface Badge {
+  net: string;
+  /** Short text lines, e.g. ["|Z| 12.4 kΩ", "C 1.2 pF", "τ 15 ns"]. */
+  lines: string[];
+  /** World point the badge points at (on the net); the badge box sits up and right of it. */
+  anchor: Point;
+}
+
+export interface SlowestMark {
+  net: string;
+  anchor: Point;
+  /** e.g. "slowest node: 1.2 MHz". */
+  label: string;
+}
+
+export interface LoopPath {
+  loopId: string;
+  label: string;
+  /** Ordered world points through the loop's nets, closing back to the first. */
+  points: Point[];
+}
+
+export interface Legend {
+  title: string;
+  stops: LegendStop[];
+  noValueColor: string;
+  noValueLabel: string;
+}
+
+export interface SchematicAnnotations {
+  /** Net name → mark; nets left out are drawn in the plain wire colour (ground, no result). */
+  nets: Record<string, NetMark>;
+  badges: Badge[];
+  slowest: SlowestMark | null;
+  loop: LoopPath | null;
+  legend: Legend | null;
+  /** The linear small-signal caution shown with every annotated output. */
+  caution: string;
+}
+
+/** What the title block of an exported sheet says. */
+export interface TitleBlock {
+  drawingName: string;
+  /** ISO date (YYYY-MM-DD). */
+  date: string;
+  /** Frequency of the node-impedance column, or null (DC). */
+  frequencyHz: number | null;
+  /** Loops / sources switched off for this result. */
+  loopsOff: string[];
+  /** Extra line, e.g. "compare: B". */
+  note?: string;
+}
+
+export const EMPTY_ANNOTATIONS: SchematicAnnotations = { nets: {}, badges: [], slowest: null, loop: null, legend: null, caution: '' };
