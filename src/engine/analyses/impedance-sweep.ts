@@ -80,15 +80,26 @@ function buildModal(sys: Sys, poles: Pole[], red: ShiftedReduction, vectors?: Mo
   return { lr, li, rr, ri, d };
 }
 
-function evalModal(f: ModalForm, k: number, w: number): Cx | null {
-  let re = f.d[k], im = 0;
-  for (let i = 0; i < f.lr.length; i++) {
+/** Z_k(jw) for every node k: 1/(jw − λ_i) once per pole, then one complex multiply-add per node. */
+function evalModalAll(f: ModalForm, w: number, inv: { re: Float64Array; im: Float64Array }): (Cx | null)[] {
+  const m = f.lr.length;
+  for (let i = 0; i < m; i++) {
     const ur = -f.lr[i], ui = w - f.li[i], uu = ur * ur + ui * ui; // s − λ_i, s = jw
-    if (!(uu > 0)) return null;
-    re += (f.rr[i][k] * ur + f.ri[i][k] * ui) / uu;
-    im += (f.ri[i][k] * ur - f.rr[i][k] * ui) / uu;
+    if (!(uu > 0)) return f.d.length ? Array.from(f.d, () => null) : [];
+    inv.re[i] = ur / uu;
+    inv.im[i] = -ui / uu;
   }
-  return { re, im };
+  const out: (Cx | null)[] = [];
+  for (let k = 0; k < f.d.length; k++) {
+    let re = f.d[k], im = 0;
+    for (let i = 0; i < m; i++) {
+      const a = f.rr[i][k], b = f.ri[i][k], c = inv.re[i], d = inv.im[i];
+      re += a * c - b * d;
+      im += a * d + b * c;
+    }
+    out.push({ re, im });
+  }
+  return out;
 }
 
 function agrees(got: Cx | null, ref: Cx | null, floor: number): boolean {
@@ -114,14 +125,17 @@ export function impedanceSweep(
   if (!red || !opts.poles || hz.length < 4) return direct();
   const form = buildModal(sys, opts.poles, red, opts.vectors);
   if (!form) return direct();
+  const inv = { re: new Float64Array(form.lr.length), im: new Float64Array(form.lr.length) };
   // Check the modal form against the direct solve at two frequencies of the grid.
   for (const f of [hz[Math.floor(hz.length / 3)], hz[Math.floor((2 * hz.length) / 3)]]) {
     const ref = impedancesAt(sys, { re: 0, im: 2 * Math.PI * f }).values;
+    const got = evalModalAll(form, 2 * Math.PI * f, inv);
     let floor = 0;
     for (const z of ref) if (z) floor = Math.max(floor, Math.hypot(z.re, z.im));
     floor *= 1e-3; // nodes a thousand times stiffer than the softest are checked in absolute terms
-    for (let k = 0; k < nodes.length; k++) if (!agrees(evalModal(form, k, 2 * Math.PI * f), ref[k], floor)) return direct();
+    for (let k = 0; k < nodes.length; k++) if (!agrees(got[k], ref[k], floor)) return direct();
   }
-  const values = nodes.map((_, k) => hz.map((f) => evalModal(form, k, 2 * Math.PI * f)));
+  const values: (Cx | null)[][] = nodes.map(() => []);
+  for (const f of hz) evalModalAll(form, 2 * Math.PI * f, inv).forEach((z, k) => values[k].push(z));
   return { hz, nodes, values, method: 'modal' };
 }

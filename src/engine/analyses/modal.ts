@@ -23,6 +23,10 @@ export interface ModalVectors {
   errorEstimate: number;
 }
 
+/** Inverse-iteration steps (Wilkinson 1965): with the shift at the eigenvalue one step nearly
+ *  converges from a generic start; the second brings the residual to roundoff level. */
+const INVERSE_STEPS = 2;
+
 interface HessFactor { n: number; ur: Float64Array; ui: Float64Array; fr: Float64Array; fi: Float64Array; swap: Uint8Array }
 
 /** LU with adjacent-row pivoting of H − μI (upper Hessenberg); tiny pivots are nudged to tol. */
@@ -160,7 +164,7 @@ export function modalSolver(G: Float64Array, C: Float64Array, n: number, reducti
       const zr = new Float64Array(n).fill(1), zi = new Float64Array(n);
       const wr = new Float64Array(n).fill(1), wi = new Float64Array(n);
       for (let i = 0; i < n; i++) { zr[i] += 0.37 * ((i * 7919) % 61) / 61; wr[i] += 0.29 * ((i * 104729) % 59) / 59; }
-      for (let step = 0; step < 2; step++) {
+      for (let step = 0; step < INVERSE_STEPS; step++) {
         solveShifted(fac, zr, zi);
         solveShiftedAdjoint(fac, wr, wi);
         if (!normalize(zr, zi) || !normalize(wr, wi)) return null;
