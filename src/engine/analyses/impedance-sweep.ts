@@ -46,7 +46,7 @@ function buildModal(sys: Sys, poles: Pole[], red: ShiftedReduction, vectors?: Mo
     let dr = 0, di = 0, xs = 0, ys = 0;
     for (let r = 0; r < n; r++) {
       let cr = 0, ci = 0;
-      for (let c = 0; c < n; c++) { const w = C[r * n + c]; cr += w * v.rightRe[c]; ci += w * v.rightIm[c]; }
+      for (let c = 0; c < n; c++) { const w = C[r * n + c]; if (w === 0) continue; cr += w * v.rightRe[c]; ci += w * v.rightIm[c]; }
       dr += v.leftRe[r] * cr + v.leftIm[r] * ci;
       di += v.leftRe[r] * ci - v.leftIm[r] * cr;
       xs += v.rightRe[r] ** 2 + v.rightIm[r] ** 2;

@@ -30,10 +30,12 @@ const INVERSE_STEPS = 2;
 interface HessFactor { n: number; ur: Float64Array; ui: Float64Array; fr: Float64Array; fi: Float64Array; swap: Uint8Array }
 
 /** LU with adjacent-row pivoting of H − μI (upper Hessenberg); tiny pivots are nudged to tol. */
-function factorShifted(H: Float64Array, n: number, mr: number, mi: number, tol: number): HessFactor {
-  const ur = new Float64Array(n * n), ui = new Float64Array(n * n);
+function factorShifted(H: Float64Array, n: number, mr: number, mi: number, tol: number, work?: { ur: Float64Array; ui: Float64Array }): HessFactor {
+  const ur = work?.ur ?? new Float64Array(n * n), ui = work?.ui ?? new Float64Array(n * n);
   for (let i = 0; i < n; i++) {
-    for (let j = Math.max(0, i - 1); j < n; j++) ur[i * n + j] = H[i * n + j];
+    // Only the band j ≥ i − 1 is read later; clear the one entry below it a reused buffer may hold.
+    if (i >= 2) { ur[i * n + i - 2] = 0; ui[i * n + i - 2] = 0; }
+    for (let j = Math.max(0, i - 1); j < n; j++) { ur[i * n + j] = H[i * n + j]; ui[i * n + j] = 0; }
     ur[i * n + i] -= mr;
     ui[i * n + i] -= mi;
   }
@@ -125,21 +127,33 @@ function applyQ(Q: Float64Array, n: number, vr: Float64Array, vi: Float64Array):
   return [or, oi];
 }
 
-/** ‖(G + λC)x‖ (or ‖(G + λC)ᴴx‖) / ((‖G‖ + |λ|‖C‖)·‖x‖). */
-function residualOf(G: Float64Array, C: Float64Array, n: number, lr: number, li: number, xr: Float64Array, xi: Float64Array, adjoint: boolean, scale: number): number {
-  let s = 0, xs = 0;
+/** Relative residuals of x ((G + λC)x) and y ((G + λC)ᴴy) in one pass over the matrices:
+ *  ‖·‖ / ((‖G‖ + |λ|‖C‖)·‖v‖), Frobenius norms. */
+function residuals(G: Float64Array, C: Float64Array, n: number, lr: number, li: number,
+  xr: Float64Array, xi: Float64Array, yr: Float64Array, yi: Float64Array, scale: number): number {
+  const tr = new Float64Array(n), ti = new Float64Array(n);
+  let sx = 0, xs = 0, ys = 0;
   for (let i = 0; i < n; i++) {
     let rr = 0, ri = 0;
+    const a = yr[i], b = yi[i];
     for (let j = 0; j < n; j++) {
-      const k = adjoint ? j * n + i : i * n + j;
-      const ar = G[k] + lr * C[k], ai = (adjoint ? -li : li) * C[k];
-      rr += ar * xr[j] - ai * xi[j];
-      ri += ar * xi[j] + ai * xr[j];
+      const k = i * n + j;
+      const g = G[k], c = C[k];
+      if (g === 0 && c === 0) continue; // MNA matrices are sparse
+      const mr = g + lr * c, mi = li * c;
+      rr += mr * xr[j] - mi * xi[j];
+      ri += mr * xi[j] + mi * xr[j];
+      // (G + λC)ᴴ y: column j gets conj(m_ij)·y_i
+      tr[j] += mr * a + mi * b;
+      ti[j] += mr * b - mi * a;
     }
-    s += rr * rr + ri * ri;
+    sx += rr * rr + ri * ri;
     xs += xr[i] * xr[i] + xi[i] * xi[i];
+    ys += a * a + b * b;
   }
-  return Math.sqrt(s) / (scale * Math.sqrt(xs));
+  let sy = 0;
+  for (let j = 0; j < n; j++) sy += tr[j] * tr[j] + ti[j] * ti[j];
+  return Math.max(Math.sqrt(sx / xs), Math.sqrt(sy / ys)) / scale;
 }
 
 export interface ModalSolver {
@@ -155,12 +169,13 @@ export function modalSolver(G: Float64Array, C: Float64Array, n: number, reducti
   nH = Math.sqrt(nH); nG = Math.sqrt(nG); nC = Math.sqrt(nC);
   const tol = 1e-15 * Math.max(nH, 1e-300);
   const lu: RealLU = f;
+  const work = { ur: new Float64Array(n * n), ui: new Float64Array(n * n) };
   return {
     vectors(lambda) {
       const dr = lambda.re - sigma, di = lambda.im, d2 = dr * dr + di * di;
       if (!(d2 > 0)) return null;
       const mr = -dr / d2, mi = di / d2; // μ = −1/(λ − σ)
-      const fac = factorShifted(H, n, mr, mi, tol);
+      const fac = factorShifted(H, n, mr, mi, tol, work);
       const zr = new Float64Array(n).fill(1), zi = new Float64Array(n);
       const wr = new Float64Array(n).fill(1), wi = new Float64Array(n);
       for (let i = 0; i < n; i++) { zr[i] += 0.37 * ((i * 7919) % 61) / 61; wr[i] += 0.29 * ((i * 104729) % 59) / 59; }
@@ -174,10 +189,7 @@ export function modalSolver(G: Float64Array, C: Float64Array, n: number, reducti
       const yr = solveRealTransposed(lu, ur), yi = solveRealTransposed(lu, ui);
       if (!normalize(xr, xi) || !normalize(yr, yi)) return null;
       const scale = nG + Math.hypot(lambda.re, lambda.im) * nC;
-      const residual = Math.max(
-        residualOf(G, C, n, lambda.re, lambda.im, xr, xi, false, scale),
-        residualOf(G, C, n, lambda.re, lambda.im, yr, yi, true, scale),
-      );
+      const residual = residuals(G, C, n, lambda.re, lambda.im, xr, xi, yr, yi, scale);
       const errorEstimate = (2.2e-16 * nH) / Math.hypot(mr, mi);
       return { rightRe: xr, rightIm: xi, leftRe: yr, leftIm: yi, residual: Number.isFinite(residual) ? residual : Infinity, errorEstimate };
     },
