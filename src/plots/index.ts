@@ -17,3 +17,4 @@ export { toSvg } from './toSvg';
 export { sceneToNodes } from './svgNodes';
 export { PlotSvg, type PlotSvgProps } from './PlotSvg';
 export { BodePlot, LoopGainPlot, ImpedancePlot, SplanePlot, StepPlot } from './Plots';
+export { bodeInputFrom, loopGainInputFrom, splaneInputFrom, stepInputFrom } from './fromEngine';

@@ -133,14 +133,14 @@ export function decadeDomain(lo: number, hi: number): [number, number] {
   return [10 ** a, 10 ** Math.max(b, a + 1)];
 }
 
-/** Log-axis ticks: majors at decades (labelled every 1, 2 or 3 decades so at most `maxLabels`
+/** Log-axis ticks: majors at decades (labelled every decade, or every 3rd, 6th ... on engineering steps, so at most `maxLabels`
  *  carry text), minors at 2..9 × 10ᵏ while the axis spans at most `minorDecades` decades. On an
  *  axis narrower than about two decades, 2 and 5 are labelled too (1-2-5). */
 export function logTicks(lo: number, hi: number, unit = '', maxLabels = 8, minorDecades = 12): Tick[] {
   if (!(lo > 0) || !(hi > lo)) return [];
   const e0 = Math.floor(Math.log10(lo) + 1e-9), e1 = Math.ceil(Math.log10(hi) - 1e-9);
   const decades = e1 - e0;
-  const every = [1, 2, 3, 6, 9, 12].find((s) => Math.ceil((decades + 1) / s) <= maxLabels) ?? Math.ceil(decades / maxLabels);
+  const every = [1, 3, 6, 9, 12].find((s) => Math.ceil((decades + 1) / s) <= maxLabels) ?? Math.ceil(decades / maxLabels);
   const inside = (v: number) => v >= lo * (1 - 1e-9) && v <= hi * (1 + 1e-9);
   const narrow = Math.log10(hi / lo) < 2;
   const out: Tick[] = [];
