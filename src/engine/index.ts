@@ -13,6 +13,7 @@ import { dcTransfer, transferEvaluator } from './analyses/transfer';
 import { shiftedReduction } from './analyses/hessenberg';
 import { findBandwidth, findUnityGain, logGrid, sweepTransfer, type Sweep } from './analyses/frequency';
 import { dcImpedances, impedancesAtHz } from './analyses/impedance';
+export type { TransferEvaluator } from './analyses/transfer';
 import { nodeTimeConstants, openCircuitTimeConstants, type OctcResult } from './analyses/octc';
 import { poleParticipation, type PoleParticipation } from './analyses/participation';
 import { poleVectors } from './analyses/modal';
@@ -32,6 +33,8 @@ export { validateNetlist, canonicalNode, isGroundName } from './netlist';
 export { BUILTIN_PROCESSES, DEFAULT_PROCESS_NAME } from './process';
 export { logGrid } from './analyses/frequency';
 export { buildMna } from './mna';
+// Lower-level analyses on an assembled system (buildMna), for panels that re-evaluate one piece.
+export { computePoles, computeZeros, transferEvaluator, impedancesAtHz, impedanceSweep };
 
 export const SMALL_SIGNAL_CAUTION =
   'Linear small-signal estimates about the entered bias point; confirm with full circuit simulation.';
@@ -172,14 +175,14 @@ export function runAnalyses(sys: MnaSystem, issues: EngineIssue[], conditions: A
     reasons.sweep = dcT.reason ?? 'no transfer chosen';
   }
 
-  const slowest = poles.poles.find((p) => p.kind !== 'origin');
+  const slowestPole = poles.poles.find((p) => p.kind !== 'origin');
   let asked = opts.frequencyHz;
   if (asked !== undefined && !(typeof asked === 'number' && Number.isFinite(asked) && asked >= 0)) {
     res.issues.push({ severity: 'warning', code: 'bad-value', field: 'frequencyHz',
       message: `frequencyHz: ${String(asked)} is not a frequency ≥ 0 in Hz; the default frequency is used` });
     asked = undefined;
   }
-  const fz = asked ?? res.bandwidthHz ?? res.unityGainHz ?? slowest?.hz ?? 1e6;
+  const fz = asked ?? res.bandwidthHz ?? res.unityGainHz ?? slowestPole?.hz ?? 1e6;
   conditions.frequencyHz = fz;
   const zDc = dcImpedances(sys, dc);
   const zAt = impedancesAtHz(sys, fz, dc);
