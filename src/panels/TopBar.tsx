@@ -23,6 +23,10 @@ interface Props {
   onExample: (id: string) => void;
   showIssues: boolean;
   onToggleIssues: () => void;
+  /** Exports (src/export/browserExport.ts exportActions); items are shown when given. */
+  onExportSvg?: () => void;
+  onExportReport?: () => void;
+  onExportPlots?: () => void;
 }
 
 function keyOf(id: string): string | undefined {
@@ -65,6 +69,9 @@ export function TopBar(props: Props) {
             {item('New empty drawing', props.onNew)}
             {item('Open drawing…', () => onCommand('file.open'), keyOf('file.open'))}
             {item('Save drawing…', () => onCommand('file.save'), keyOf('file.save'))}
+            {props.onExportSvg && item('Export SVG (annotated schematic)', props.onExportSvg)}
+            {props.onExportReport && item('Export report (JSON + CSV)', props.onExportReport)}
+            {props.onExportPlots && item('Export plots (SVG)', props.onExportPlots)}
             <li className="menu-sep" role="separator" />
             <li className="menu-head">Examples</li>
             {examples.length === 0 && <li className="menu-head faint">none available</li>}
@@ -85,6 +92,7 @@ export function TopBar(props: Props) {
         <button type="button" className="tb-btn" title={tip('edit.turn')} onClick={() => onCommand('edit.turn')}>Turn</button>
         <button type="button" className="tb-btn" title={tip('edit.flip')} onClick={() => onCommand('edit.flip')}>Flip</button>
         <button type="button" className="tb-btn" title={tip('view.fit')} onClick={() => onCommand('view.fit')}>Fit</button>
+        <button type="button" className="tb-btn" title={tip('layout.tidy')} onClick={() => onCommand('layout.tidy')}>Tidy</button>
         <button type="button" className={`tb-btn${props.showIssues ? ' on' : ''}`} aria-pressed={props.showIssues} title="Show drawing problems on the drawing" onClick={props.onToggleIssues}>Checks</button>
       </div>
       <div className="tb-group">

@@ -1,0 +1,56 @@
+// Browser side of the exports: turn the DOM-free exporters' text into downloads, and run the tidy
+// layout with ELK in a worker. The only file of src/export that touches the DOM.
+import type { Editor } from '../editor/types';
+import type { DrawingDocument } from '../schematic/document';
+import { tidyEditor, type TidyResult } from '../layout/tidy';
+import { workerElk } from '../layout/elkWorker';
+import { analyseDrawing, annotatedSvg, drawingReport, type ExportOptions } from './exportDrawing';
+import { bodeSvg, poleZeroSvg } from './plotSvg';
+
+export function downloadText(name: string, mime: string, text: string): void {
+  const url = URL.createObjectURL(new Blob([text], { type: mime }));
+  const a = document.createElement('a');
+  a.href = url;
+  a.download = name;
+  document.body.appendChild(a);
+  a.click();
+  a.remove();
+  setTimeout(() => URL.revokeObjectURL(url), 2000);
+}
+
+function baseName(doc: DrawingDocument): string {
+  return (doc.title?.trim() || 'drawing').replace(/[^A-Za-z0-9_.-]+/g, '-').replace(/^-+|-+$/g, '').slice(0, 60) || 'drawing';
+}
+
+/** Top-bar handlers (TopBar props onExportSvg / onExportReport / onExportPlots). */
+export function exportActions(getDoc: () => DrawingDocument, getOptions: () => ExportOptions & { compareOff?: string[] } = () => ({})) {
+  return {
+    onExportSvg: () => {
+      const doc = getDoc();
+      downloadText(`${baseName(doc)}.svg`, 'image/svg+xml', annotatedSvg(doc, getOptions()));
+    },
+    onExportReport: () => {
+      const doc = getDoc();
+      const r = drawingReport(doc, getOptions());
+      downloadText(`${baseName(doc)}-report.json`, 'application/json', r.json);
+      downloadText(`${baseName(doc)}-report.csv`, 'text/csv', r.csv);
+    },
+    onExportPlots: () => {
+      const doc = getDoc();
+      const an = analyseDrawing(doc, getOptions());
+      if (!an.result?.ok) return;
+      if (an.result.sweep) downloadText(`${baseName(doc)}-bode.svg`, 'image/svg+xml', bodeSvg(an.result.sweep, doc.title ?? 'Transfer'));
+      downloadText(`${baseName(doc)}-poles-zeros.svg`, 'image/svg+xml', poleZeroSvg(an.result.poles, an.result.zeros));
+    },
+  };
+}
+
+/** The editor's `tidy` action: ELK in a worker, one undo step, the outcome told through `notify`. */
+export function editorTidy(editor: Editor, notify: (message: string, isError: boolean) => void): () => void {
+  return () => {
+    void tidyEditor(editor, workerElk()).then(
+      (r: TidyResult) => notify(r.message, r.status === 'failed'),
+      (e: unknown) => notify(`Tidy failed: ${e instanceof Error ? e.message : String(e)}`, true),
+    );
+  };
+}
