@@ -1,0 +1,61 @@
+// Browser-test harness: builds the app once, serves it on localhost and drives Debian's Chromium
+// with playwright-core (never a downloaded browser). Where Chromium is missing the suites using
+// `browserSuite` report themselves skipped with the install hint.
+import { existsSync, mkdirSync, mkdtempSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { describe } from 'vitest';
+import type { Browser, BrowserContext, Page } from 'playwright-core';
+
+export const ROOT = fileURLToPath(new URL('../..', import.meta.url));
+export const ARTIFACTS = join(ROOT, 'tests', 'artifacts');
+export const CHROMIUM = process.env.CHROMIUM_PATH || '/usr/bin/chromium';
+export const HAVE_CHROMIUM = existsSync(CHROMIUM);
+export const INSTALL_HINT =
+  'browser tests skipped: Chromium not found at ' + CHROMIUM +
+  ' (install it with `apt-get install -y chromium`, or set CHROMIUM_PATH)';
+
+/** `describe` that skips, with the install hint in its title, where Chromium is missing. */
+export function browserSuite(name: string, body: () => void): void {
+  if (HAVE_CHROMIUM) describe(name, body);
+  else describe.skip(`${name} — ${INSTALL_HINT}`, body);
+}
+
+export interface Served { url: string; close(): Promise<void> }
+
+/** Build the app into a temporary folder and serve it with Vite's preview server on a free port. */
+export async function buildAndServe(): Promise<Served> {
+  const { build, preview } = await import('vite');
+  const configFile = join(ROOT, 'src', 'vite.config.ts');
+  const outDir = mkdtempSync(join(tmpdir(), 'polesketch-build-'));
+  await build({ configFile, logLevel: 'error', build: { outDir, emptyOutDir: true } });
+  const server = await preview({
+    configFile,
+    logLevel: 'error',
+    build: { outDir },
+    preview: { port: 0, host: '127.0.0.1', strictPort: false },
+  });
+  const url = server.resolvedUrls?.local[0] ?? `http://127.0.0.1:${(server.httpServer.address() as { port: number }).port}/`;
+  return { url, close: () => new Promise<void>((r) => server.httpServer.close(() => r())) };
+}
+
+// playwright gives every launch a fresh temporary profile (user-data dir).
+export async function launchBrowser(): Promise<{ browser: Browser; context: BrowserContext; page: Page }> {
+  const { chromium } = await import('playwright-core');
+  const browser = await chromium.launch({
+    executablePath: CHROMIUM,
+    args: [
+      '--headless', '--no-sandbox', '--disable-gpu', '--disable-background-networking',
+      '--disable-component-update', '--disable-sync', '--no-first-run', '--disable-quic',
+    ],
+  });
+  const context = await browser.newContext({ viewport: { width: 1440, height: 900 }, acceptDownloads: true });
+  const page = await context.newPage();
+  return { browser, context, page };
+}
+
+export function artifactPath(name: string): string {
+  mkdirSync(ARTIFACTS, { recursive: true });
+  return join(ARTIFACTS, name);
+}
