@@ -41,7 +41,8 @@ export function axesItems(p: Panel, xTicks: Tick[], yTicks: Tick[], opts: AxesOp
     const x = p.xs.map(t.value);
     out.push({ kind: 'line', role: t.major ? 'grid-major' : 'grid-minor', x1: x, y1: p.y, x2: x, y2: p.y + p.h, style: t.major ? LINES.gridMajor : LINES.gridMinor });
     if (t.label !== null && opts.xLabels !== false) {
-      out.push({ kind: 'text', role: 'tick-x', x, y: p.y + p.h + 4, text: t.label, anchor: 'middle', baseline: 'hanging', size: FONT_SIZE, fill: PALETTE.ink });
+      const anchor = x > p.x + p.w - 20 ? 'end' : 'middle'; // the last label stays inside the figure
+      out.push({ kind: 'text', role: 'tick-x', x, y: p.y + p.h + 4, text: t.label, anchor, baseline: 'hanging', size: FONT_SIZE, fill: PALETTE.ink });
     }
   }
   for (const t of yTicks) {

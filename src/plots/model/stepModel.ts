@@ -34,7 +34,7 @@ export function stepModel(input: StepInput, opts: StepOptions = {}): Scene {
   const xs = logT ? logScale(tLo, tHi, left, left + w) : linearScale(tLo, tHi, left, left + w);
   const yInf = input.finalValue;
   const ye = extent([...y, yInf, 0]) as [number, number];
-  const dy = niceDomain(ye[0], ye[1], 6, [niceStep(ye[1] - ye[0] || 1, 5)]);
+  const dy = niceDomain(ye[0], ye[1], 8, [niceStep(ye[1] - ye[0] || 1, 6)]);
   const top1: Panel = { id: 'y', x: left, y: top, w, h: hY, xs, ys: linearScale(dy.lo, dy.hi, top + hY, top) };
   const eY = top + hY + gap;
   const tTicks = logT ? logTicks(tLo, tHi, 's') : linearTicks(tLo, tHi, 6, (v) => formatSi(v, 's', { trim: true, digits: 4 }));
@@ -48,16 +48,17 @@ export function stepModel(input: StepInput, opts: StepOptions = {}): Scene {
   if (yInf !== null && yInf !== 0) {
     const yline = top1.ys.map(yInf);
     scene.items.push({ kind: 'line', role: 'final-value', clip: 'y', x1: left, y1: yline, x2: left + w, y2: yline, style: LINES.reference });
-    scene.items.push({ kind: 'text', role: 'final-value-label', x: left + w - 4, y: yline - 3, text: `y∞ = ${formatPlain(yInf)}`, anchor: 'end', baseline: 'auto', size: FONT_SIZE - 1, fill: PALETTE.inkSoft });
+    const below = yline - top < 14; // keep the label inside the panel
+    scene.items.push({ kind: 'text', role: 'final-value-label', x: left + w - 4, y: below ? yline + 3 : yline - 3, text: `y∞ = ${formatPlain(yInf)}`, anchor: 'end', baseline: below ? 'hanging' : 'auto', size: FONT_SIZE - 1, fill: PALETTE.inkSoft });
     err = y.map((v) => { const e = Math.abs(v - yInf) / Math.abs(yInf); return e > 0 ? e : null; });
     const tols = input.settling.map((s) => s.tolerance).filter((e) => e > 0);
     const eMax = Math.max(1, ...err.filter((e): e is number => e !== null));
     const eMin = Math.min(1e-4, ...tols.map((e) => e / 10));
-    const eLo = 10 ** Math.floor(Math.log10(eMin)), eHi = 10 ** Math.ceil(Math.log10(eMax));
+    const eLo = 10 ** Math.floor(Math.log10(eMin) + 1e-9), eHi = 10 ** Math.min(1, Math.ceil(Math.log10(eMax) - 0.05));
     const ep: Panel = { id: 'err', x: left, y: eY, w, h: hE, xs, ys: logScale(eLo, eHi, eY + hE, eY) };
     bottomPanel = ep;
     addPanel(scene, ep);
-    const eTicks = logTicks(eLo, eHi, '', 6, 0).map((tk) => ({ ...tk, label: tk.label === null ? null : percent(tk.value) }));
+    const eTicks = logTicks(eLo, eHi, '', 8, 0).map((tk) => ({ ...tk, label: tk.label === null ? null : percent(tk.value) }));
     scene.items.push(...axesItems(ep, tTicks, eTicks, { xTitle: logT ? 'time (log)' : 'time', yTitle: '|y − y∞| / |y∞|' }));
     scene.items.push({ kind: 'path', role: 'curve-error', clip: 'err', runs: curveRuns(ep, t, err), style: LINES.secondary });
     input.settling.forEach((s, n) => {
@@ -70,7 +71,9 @@ export function stepModel(input: StepInput, opts: StepOptions = {}): Scene {
       const x = xs.map(s.seconds);
       scene.items.push({ kind: 'line', role: 'settling', x1: x, y1: top, x2: x, y2: eY + hE, style: { ...LINES.tertiary, width: 1.5 } });
       scene.items.push({ kind: 'marker', role: 'settling-mark', clip: 'err', shape: 'diamond', x, y: yl, size: 4, style: { stroke: PALETTE.violet, width: 1.5, fill: PALETTE.violet } });
-      scene.items.push({ kind: 'text', role: 'settling-label', x: x + 4, y: top + 12 + 13 * n, text: `${percent(s.tolerance)}: ${formatSi(s.seconds, 's')}`, anchor: 'start', baseline: 'middle', size: FONT_SIZE - 1, fill: PALETTE.violet, weight: 'bold' });
+      const text = `${percent(s.tolerance)}: ${formatSi(s.seconds, 's')}`;
+      const flip = x + 8 + text.length * FONT_SIZE * 0.6 > left + w; // near the right edge: label to the left
+      scene.items.push({ kind: 'text', role: 'settling-label', x: flip ? x - 4 : x + 4, y: top + 12 + 13 * n, text, anchor: flip ? 'end' : 'start', baseline: 'middle', size: FONT_SIZE - 1, fill: PALETTE.violet, weight: 'bold' });
     });
   } else {
     notes.push(yInf === 0 ? 'The final value is 0: settling is not defined relative to it.' : 'No final value: the response does not settle (or has an integrator).');
@@ -88,7 +91,7 @@ export function stepModel(input: StepInput, opts: StepOptions = {}): Scene {
       return { x, y: top, dots, lines };
     }),
   });
-  if (input.overshoot !== null && input.overshoot !== undefined && input.overshoot > 0) notes.push(`Overshoot ${percent(input.overshoot)}.`);
+  if (input.overshoot !== null && input.overshoot !== undefined && input.overshoot >= 1e-4) notes.push(`Overshoot ${percent(input.overshoot)}.`);
   if (notes.length) addNote(scene, notes.join(' '), 8, height - 12);
   return scene;
 }
