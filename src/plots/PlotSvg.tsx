@@ -1,5 +1,5 @@
 // Renders a plot scene as JSX <svg> (the same element tree toSvg serialises) with a hover read-out.
-import { createElement, useId, useMemo, useState, type ReactElement, type MouseEvent } from 'react';
+import { createElement, useEffect, useId, useMemo, useState, type ReactElement, type MouseEvent } from 'react';
 import type { Scene } from './model/scene';
 import { hoverAt, readoutItems, type HoverHit } from './model/hover';
 import { sceneToNodes, type SvgNode } from './svgNodes';
@@ -28,6 +28,7 @@ export function PlotSvg({ scene, className, onExport, onHover }: PlotSvgProps): 
   const [hit, setHit] = useState<HoverHit | null>(null);
   const base = useMemo(() => sceneToNodes(scene, { idPrefix: pre }), [scene, pre]);
   const overlay = useMemo(() => (hit ? sceneToNodes({ ...scene, items: [], clips: [] }, { idPrefix: pre, overlay: readoutItems(scene, hit) }) : null), [hit, scene, pre]);
+  useEffect(() => setHit(null), [scene]); // a new scene invalidates the old read-out
   const update = (h: HoverHit | null) => { setHit(h); onHover?.(h); };
   const onMove = (e: MouseEvent<SVGSVGElement>) => {
     const r = e.currentTarget.getBoundingClientRect();

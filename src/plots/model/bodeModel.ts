@@ -38,9 +38,10 @@ function markRoots(scene: Scene, fp: FreqPanels, poles: PlotRoot[], zeros: PlotR
   const { mag, phase } = fp;
   const lo = mag.xs.d0, hi = mag.xs.d1;
   const points: HoverPoint[] = [];
-  let origin = 0, outside = 0;
+  let origin = 0, outside = 0, broken = 0;
   const mark = (r: PlotRoot, isPole: boolean, row: number) => {
     const f = rootHz(r);
+    if (!Number.isFinite(f)) { broken++; return; }
     if (f === 0) { origin++; return; }
     if (f < lo * (1 - 1e-9) || f > hi * (1 + 1e-9)) { outside++; return; }
     const x = mag.xs.map(f);
@@ -62,6 +63,7 @@ function markRoots(scene: Scene, fp: FreqPanels, poles: PlotRoot[], zeros: PlotR
   if (points.length) scene.hover.unshift({ id: 'roots', mode: 'xy', area: { x: mag.x, y: mag.y, w: mag.w, h: mag.h }, radius: 9, points });
   const notes: string[] = [];
   if (origin) notes.push(`${origin} root${origin > 1 ? 's' : ''} at s = 0 (not on a log axis)`);
+  if (broken) notes.push(`${broken} root${broken > 1 ? 's' : ''} not finite (left out)`);
   if (outside) notes.push(`${outside} root${outside > 1 ? 's' : ''} outside the plotted band`);
   if (notes.length) addNote(scene, notes.join('; ') + '.', 8, scene.height - 12);
 }

@@ -1,7 +1,7 @@
 // Loop gain T(jω) of the selected loop (Bode's return ratio at its key source): magnitude and phase
 // with the crossover |T| = 1, the phase margin (180° + ∠T at crossover) drawn as a bar up from the
 // −180° line, and the gain margin (−|T| in dB where ∠T reaches −180°) as a bar down from 0 dB.
-import type { LoopGainInput, PlotSize } from '../types';
+import type { LoopGainInput, MarginsInput, PlotSize } from '../types';
 import type { HoverPoint, Scene } from './scene';
 import { formatSi, plainLabel } from './scales';
 import { addNote, newScene, titleItem, FONT_SIZE, type Panel } from './frame';
@@ -14,7 +14,7 @@ export function loopGainModel(input: LoopGainInput, size: PlotSize = {}): Scene 
   const scene = newScene(width, height, title, 'Magnitude and phase of the loop gain (return ratio) against frequency, with crossover and margins');
   titleItem(scene, 66);
   const fp = frequencyPanels(scene, input, { width, height, symbol: 'T', includeDb: [0], includeDeg: [-180, 0] });
-  const m = input.margins;
+  const m = input.margins ? finiteMargins(input.margins) : null;
   const notes: string[] = [];
   if (m?.message) notes.push(m.message);
   if (fp) {
@@ -55,6 +55,11 @@ export function loopGainModel(input: LoopGainInput, size: PlotSize = {}): Scene 
   }
   if (notes.length) addNote(scene, notes.join(' '), 8, height - 12);
   return scene;
+}
+
+const fin = (v: number | null | undefined) => (typeof v === 'number' && Number.isFinite(v) ? v : null);
+function finiteMargins(m: MarginsInput): MarginsInput {
+  return { ...m, unityGainHz: fin(m.unityGainHz), phaseMarginDeg: fin(m.phaseMarginDeg), phaseCrossHz: fin(m.phaseCrossHz), gainMarginDb: fin(m.gainMarginDb) };
 }
 
 function inBand(p: Panel, f: number): boolean {

@@ -85,13 +85,15 @@ function drawLocus(scene: Scene, view: SplaneView, locus: NonNullable<SplaneInpu
   return `Root locus: □ k = 0, ◆ k = ${Number(drawn.toPrecision(3))} (as drawn), △ k = ${Number(kMax.toPrecision(3))}${msg}.`;
 }
 
+const fin = (v: number | null | undefined): v is number => typeof v === 'number' && Number.isFinite(v);
+
 /** Root on branch b at gain kv, linearly interpolated between the bracketing samples. */
 export function pointAtK(k: number[], b: { re: (number | null)[]; im: (number | null)[] }, kv: number): PlotRoot | null {
   for (let i = 0; i < k.length; i++) {
-    if (k[i] === kv) return b.re[i] !== null && b.im[i] !== null ? { re: b.re[i]!, im: b.im[i]! } : null;
+    if (k[i] === kv) { const re = b.re[i], im = b.im[i]; return fin(re) && fin(im) ? { re, im } : null; }
     if (i + 1 < k.length && k[i] < kv && kv < k[i + 1]) {
       const a0 = b.re[i], a1 = b.re[i + 1], c0 = b.im[i], c1 = b.im[i + 1];
-      if (a0 === null || a1 === null || c0 === null || c1 === null) return null;
+      if (!fin(a0) || !fin(a1) || !fin(c0) || !fin(c1)) return null;
       const t = (kv - k[i]) / (k[i + 1] - k[i]);
       return { re: a0 + (a1 - a0) * t, im: c0 + (c1 - c0) * t };
     }

@@ -67,7 +67,7 @@ export function stepModel(input: StepInput, opts: StepOptions = {}): Scene {
       scene.items.push({ kind: 'line', role: 'tolerance', clip: 'err', x1: left, y1: yl, x2: left + w, y2: yl, style: LINES.reference });
       scene.items.push({ kind: 'text', role: 'tolerance-label', x: left + 4, y: yl - 2, text: percent(s.tolerance), anchor: 'start', baseline: 'auto', size: FONT_SIZE - 2, fill: PALETTE.inkSoft });
       if (s.seconds === null) { notes.push(`Does not settle to ${percent(s.tolerance)} within the simulated time.`); return; }
-      if (s.seconds < tLo || s.seconds > tHi) return;
+      if (!(s.seconds >= tLo && s.seconds <= tHi)) return;
       const x = xs.map(s.seconds);
       scene.items.push({ kind: 'line', role: 'settling', x1: x, y1: top, x2: x, y2: eY + hE, style: { ...LINES.tertiary, width: 1.5 } });
       scene.items.push({ kind: 'marker', role: 'settling-mark', clip: 'err', shape: 'diamond', x, y: yl, size: 4, style: { stroke: PALETTE.violet, width: 1.5, fill: PALETTE.violet } });
