@@ -51,8 +51,14 @@ export const ROOT_OPTIONS: Readonly<Record<string, string>> = {
 /** Port id of a part pin (also the pin key of the drawing). */
 export const portId = (part: PartId, pin: string) => `${part}#${pin}`;
 
-/** Edge source per net: the pin closest to the input marker (breadth-first over parts and nets),
- *  so edges point along the signal and the layered layout puts the input left, the output right. */
+/** Pins that drive their net in the small-signal sense (outputs of gain parts and sources). */
+const DRIVER_PINS: Partial<Record<string, readonly string[]>> = {
+  nmos: ['d'], pmos: ['d'], npn: ['c'], pnp: ['c'], vccs: ['p', 'n'], vcvs: ['p', 'n'], amplifier: ['out'], input: ['p'],
+};
+
+/** Edge source per net: a driving pin (gain-part output, the input marker) before any other, then
+ *  the pin closest to the input marker (breadth-first over parts and nets), so edges point along
+ *  the signal and the layered layout puts the input left, the output right. */
 function signalOrder(doc: DrawingDocument, model: LayoutModel): Map<PartId, number> {
   const partsOfNet = new Map<string, PartId[]>();
   const netsOfPart = new Map<PartId, string[]>();
@@ -113,7 +119,12 @@ export function toElkGraph(doc: DrawingDocument, model: LayoutModel): ElkGraphJs
     const pins = net.pins.filter((k) => moving.has(k.slice(0, k.lastIndexOf('#')) as PartId));
     if (pins.length < 2) continue;
     const d = (k: string) => dist.get(k.slice(0, k.lastIndexOf('#')) as PartId) ?? Infinity;
-    const source = [...pins].sort((a, b) => d(a) - d(b) || (a < b ? -1 : 1))[0];
+    const drives = (k: string) => {
+      const part = doc.parts[k.slice(0, k.lastIndexOf('#')) as PartId];
+      const pin = k.slice(k.lastIndexOf('#') + 1);
+      return (DRIVER_PINS[part.kind]?.includes(pin) || ((part.kind === 'vsource' || part.kind === 'isource') && part.isInput && pin === 'p')) ? 0 : 1;
+    };
+    const source = [...pins].sort((a, b) => drives(a) - drives(b) || d(a) - d(b) || (a < b ? -1 : 1))[0];
     for (const k of pins) {
       if (k === source) continue;
       edges.push({ id: `e${edges.length}:${net.key}`, sources: [source], targets: [k] });

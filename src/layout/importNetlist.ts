@@ -86,7 +86,41 @@ function partsOf(net: Netlist, messages: string[]) {
     parts.push(label);
     netOfPin[pinKey({ part: id, pin: 'p' })] = n;
   }
+  orientSeriesParts(parts, netOfPin, net.input);
   return { parts, netOfPin };
+}
+
+const TWO_PIN: ReadonlySet<SymbolKind> = new Set(['resistor', 'capacitor', 'inductor', 'vsource', 'isource']);
+
+/** Two-pin parts between two signal nets lie horizontally (p toward the input side), so the
+ *  series path reads left to right; parts to ground stay upright with their rail stub below. */
+function orientSeriesParts(parts: PartRecord[], netOfPin: Record<string, string>, input?: string): void {
+  const netsOf = new Map<PartId, string[]>();
+  const partsOf = new Map<string, PartId[]>();
+  for (const [k, n] of Object.entries(netOfPin)) {
+    if (n === GROUND_NET) continue;
+    const id = k.slice(0, k.lastIndexOf('#')) as PartId;
+    (netsOf.get(id) ?? netsOf.set(id, []).get(id)!).push(n);
+    (partsOf.get(n) ?? partsOf.set(n, []).get(n)!).push(id);
+  }
+  const dist = new Map<string, number>();
+  const start = parts.filter((p) => p.kind === 'input' || p.ref === input);
+  const queue: [PartId, number][] = start.map((p) => [p.id, 0]);
+  while (queue.length) {
+    const [id, d] = queue.shift()!;
+    for (const n of netsOf.get(id) ?? []) {
+      if (dist.has(n)) continue;
+      dist.set(n, d);
+      for (const q of partsOf.get(n) ?? []) queue.push([q, d + 1]);
+    }
+  }
+  for (const p of parts) {
+    if (!TWO_PIN.has(p.kind) || p.isInput) continue;
+    const a = netOfPin[pinKey({ part: p.id, pin: 'p' })], b = netOfPin[pinKey({ part: p.id, pin: 'n' })];
+    if (a === undefined || b === undefined || a === GROUND_NET || b === GROUND_NET) continue;
+    // Rotation 270 puts pin p on the left, 90 on the right (symbols/README.md transform).
+    p.rotation = (dist.get(a) ?? Infinity) <= (dist.get(b) ?? Infinity) ? 270 : 90;
+  }
 }
 
 /** Import a netlist and lay it out; `ok` is false (with messages) when it cannot be drawn faithfully. */
