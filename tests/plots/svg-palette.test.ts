@@ -85,3 +85,18 @@ describe('palette', () => {
     expect(new Set([MARKS.locusStart.shape, MARKS.locusAtOne.shape, MARKS.locusEnd.shape]).size).toBe(3);
   });
 });
+
+describe('small-signal caution', () => {
+  it('every plot shows that its figures are linear small-signal estimates (project rule)', () => {
+    const scenes = [
+      bodeModel({ hz: [1, 10], magDb: [0, -1], phaseDeg: [0, -5], label: 'a rather long transfer label that fills the title row' }),
+      splaneModel({ poles: [{ re: -1, im: 0 }], zeros: [] }),
+    ];
+    for (const s of scenes) {
+      const c = s.items.filter((i) => i.kind === 'text' && i.role === 'caution');
+      expect(c).toHaveLength(1);
+      expect(c[0].kind === 'text' && c[0].text).toBe('Linear small-signal estimate.');
+      expect(s.description).toMatch(/Linear small-signal estimate/);
+    }
+  });
+});

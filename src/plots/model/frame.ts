@@ -103,8 +103,14 @@ export function addNote(scene: Scene, text: string, x: number, y: number): void 
   scene.items.push({ kind: 'text', role: 'note', x, y, text, anchor: 'start', baseline: 'hanging', size: FONT_SIZE - 1, fill: PALETTE.inkSoft });
 }
 
+/** Title at the top left; the small-signal caution at the top right when it fits beside it
+ *  (widths estimated from the character count), else just under the title line at the right. */
 export function titleItem(scene: Scene, x: number): void {
-  scene.items.push({ kind: 'text', role: 'title', x, y: 8, text: scene.title, anchor: 'start', baseline: 'hanging', size: FONT_SIZE + 2, fill: PALETTE.ink, weight: 'bold' });
+  scene.items.push({ kind: 'text', role: 'title', x, y: 6, text: scene.title, anchor: 'start', baseline: 'hanging', size: FONT_SIZE + 2, fill: PALETTE.ink, weight: 'bold' });
+  const titleEnd = x + scene.title.length * (FONT_SIZE + 2) * 0.6;
+  const cautionW = SMALL_SIGNAL_NOTE.length * (FONT_SIZE - 2) * 0.55;
+  const fits = titleEnd + 12 + cautionW < scene.width - 18;
+  scene.items.push({ kind: 'text', role: 'caution', x: scene.width - 18, y: fits ? 10 : 19, text: SMALL_SIGNAL_NOTE, anchor: 'end', baseline: 'hanging', size: FONT_SIZE - 2, fill: PALETTE.inkSoft });
 }
 
 /** Index of the sorted `xs` entry nearest to x (binary search). */
