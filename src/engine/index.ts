@@ -157,11 +157,18 @@ export function runAnalyses(sys: MnaSystem, issues: EngineIssue[], conditions: A
 
   const range = chooseSweep(opts.sweep, poles.poles, zeros.zeros);
   conditions.sweep = range;
-  const transferDefined = dcT.status !== 'no-input' && dcT.status !== 'no-output';
+  // H ≡ 0 (found by the zeros' probes): what the sweep would show is roundoff, not a response.
+  const identicallyZero = zeros.status === 'identically-zero';
+  if (identicallyZero) {
+    res.dcGain = 0;
+    delete reasons.dcGain;
+    reasons.sweep = reasons.bandwidthHz = reasons.unityGainHz = 'the output does not respond to the input (H(s) ≡ 0)';
+  }
+  const transferDefined = dcT.status !== 'no-input' && dcT.status !== 'no-output' && !identicallyZero;
   // One shifted Hessenberg reduction serves the sweep and the pole vectors.
   const reduction = shiftedReduction(sys.G, sys.C, sys.n);
   if (transferDefined) {
-    const ev = transferEvaluator(sys, Math.sqrt(range.fMin * range.fMax), reduction);
+    const ev = transferEvaluator(sys, [range.fMin, range.fMax], reduction);
     const sweep = sweepTransfer(ev, logGrid(range.fMin, range.fMax, range.perDecade));
     res.sweep = sweep;
     const bw = findBandwidth(ev, sweep, dcT.value);
@@ -171,7 +178,7 @@ export function runAnalyses(sys: MnaSystem, issues: EngineIssue[], conditions: A
     res.unityGainHz = ug.hz;
     res.phaseAtUnityDeg = ug.phaseDeg;
     if (ug.reason) reasons.unityGainHz = ug.reason;
-  } else {
+  } else if (!identicallyZero) {
     reasons.sweep = dcT.reason ?? 'no transfer chosen';
   }
 

@@ -232,4 +232,23 @@ describe('analyze() conditions and bad input', () => {
     expect(r.unityGainHz! / (1e-3 / (2 * Math.PI * 1e-12))).toBeCloseTo(1, 8);
     expect(hasNonFinite(r)).toBe(false);
   });
+
+  it('an output that does not respond to the input: DC gain 0, no sweep, reasons given (Rosenbrock pencil singular)', () => {
+    const net: Netlist = {
+      format: 'polesketch-netlist', version: 1, input: 'V1', output: { kind: 'voltage', node: 'far' },
+      parts: [
+        { name: 'V1', kind: 'vsource', pins: { p: 'in', n: '0' }, values: {} },
+        { name: 'R1', kind: 'resistor', pins: { p: 'in', n: '0' }, values: { value: '1k' } },
+        { name: 'R2', kind: 'resistor', pins: { p: 'far', n: '0' }, values: { value: '1k' } },
+        { name: 'C2', kind: 'capacitor', pins: { p: 'far', n: '0' }, values: { value: '1p' } },
+      ],
+    };
+    const r = analyze(net);
+    expect(r.ok).toBe(true);
+    expect(r.dcGain).toBe(0);
+    expect(r.sweep).toBeNull();
+    expect(r.bandwidthHz).toBeNull();
+    expect(r.reasons.bandwidthHz).toMatch(/does not respond/);
+    expect(r.zeroInfo.status).toBe('identically-zero');
+  });
 });

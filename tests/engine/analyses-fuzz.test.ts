@@ -1,7 +1,8 @@
 // Seeded random netlists through analyze(): whatever the circuit, no exception escapes, no NaN or
 // Infinity appears in the result, and every error names where it is (common practice: fuzzing).
 import { describe, it, expect } from 'vitest';
-import { analyze, type Netlist, type NetlistPart } from '../../src/engine/index';
+import { analyze, buildMna, type Netlist, type NetlistPart } from '../../src/engine/index';
+import { transferDirect } from '../../src/engine/analyses/transfer';
 
 function rng(seed: number) {
   return () => {
@@ -62,6 +63,12 @@ describe('analyze() on random circuits', () => {
       }
       if (r.ok) {
         computed++;
+        // Crossings re-checked with a direct solve (one complex LU, not the fast sweep path):
+        // |H(f−3dB)| = |H(0)|/√2 and |H(f_u)| = 1 (definitions).
+        const sys = buildMna(net).system!;
+        const magAt = (f: number) => { const h = transferDirect(sys, { re: 0, im: 2 * Math.PI * f }); return h ? Math.hypot(h.re, h.im) : NaN; };
+        if (r.bandwidthHz !== null) expect(magAt(r.bandwidthHz) / (Math.abs(r.dcGain!) / Math.SQRT2), `seed ${seed}`).toBeCloseTo(1, 5);
+        if (r.unityGainHz !== null) expect(magAt(r.unityGainHz), `seed ${seed}`).toBeCloseTo(1, 5);
         expect(r.nodes.length, `seed ${seed}`).toBe(r.unknowns.nodes);
         expect(r.participation.length, `seed ${seed}`).toBe(r.poles.length);
       }

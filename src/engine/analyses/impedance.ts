@@ -4,7 +4,7 @@
 // 1/s residue W·K⁻¹·Vᵀ has a nonzero (k, k) entry (see dc.ts; for one null pair: v_k·w_k ≠ 0).
 
 import type { Cx, MnaSystem } from '../types';
-import { luComplex, solveComplex } from '../linalg/lu';
+import { scaledLuComplex, solveScaledComplex } from './scaling';
 import { dcBilinear, factorDc, type DcFactor } from './dc';
 
 export type ImpedanceSys = Pick<MnaSystem, 'n' | 'nodeCount' | 'G' | 'C'>;
@@ -43,8 +43,8 @@ export function impedancesAt(sys: ImpedanceSys, s: Cx): ImpedanceAt {
   const Ar = new Float64Array(n * n);
   const Ai = new Float64Array(n * n);
   for (let i = 0; i < n * n; i++) { Ar[i] = G[i] + s.re * C[i]; Ai[i] = s.im * C[i]; }
-  const f = luComplex(Ar, Ai, n);
-  if (f.singularAt >= 0) {
+  const f = scaledLuComplex(Ar, Ai, n);
+  if (f.singular) {
     return { values: new Array(nodeCount).fill(null), status: 'singular', reason: 'G + sC is singular at this s (s is a pole)' };
   }
   const er = new Float64Array(n);
@@ -53,7 +53,7 @@ export function impedancesAt(sys: ImpedanceSys, s: Cx): ImpedanceAt {
   for (let k = 0; k < nodeCount; k++) {
     er.fill(0);
     er[k] = 1;
-    const [xr, xi] = solveComplex(f, er, ei);
+    const [xr, xi] = solveScaledComplex(f, er, ei);
     const z = { re: xr[k], im: xi[k] };
     values.push(Number.isFinite(z.re) && Number.isFinite(z.im) ? z : null);
   }

@@ -1,7 +1,7 @@
 // The chosen transfer H(s) = cᵀ(G + sC)⁻¹b (y = cᵀx, (G + sC)x = b·u): at DC and at any s.
 
 import type { Cx, MnaSystem } from '../types';
-import { luComplex, solveComplex } from '../linalg/lu';
+import { scaledLuComplex, solveScaledComplex } from './scaling';
 import { dcBilinear, factorDc, type DcFactor } from './dc';
 import { evalHessenberg, hessenbergForm, shiftedReduction, type ShiftedReduction } from './hessenberg';
 
@@ -34,9 +34,9 @@ export function transferDirect(sys: TransferSys, s: Cx): Cx | null {
   const Ar = new Float64Array(n * n);
   const Ai = new Float64Array(n * n);
   for (let i = 0; i < n * n; i++) { Ar[i] = G[i] + s.re * C[i]; Ai[i] = s.im * C[i]; }
-  const f = luComplex(Ar, Ai, n);
-  if (f.singularAt >= 0) return null;
-  const [xr, xi] = solveComplex(f, b, new Float64Array(n));
+  const f = scaledLuComplex(Ar, Ai, n);
+  if (f.singular) return null;
+  const [xr, xi] = solveScaledComplex(f, b);
   let re = 0, im = 0;
   for (let i = 0; i < n; i++) { re += c[i] * xr[i]; im += c[i] * xi[i]; }
   return Number.isFinite(re) && Number.isFinite(im) ? { re, im } : null;
@@ -66,9 +66,10 @@ function relErr(a: Cx | null, b: Cx | null): number {
 }
 
 /** An evaluator for many s: Hessenberg form when a usable shift is found and it agrees with the
- *  direct solve at a probe point; the direct solve otherwise. `probeHz` is a typical frequency;
+ *  direct solve at the probe frequencies; the direct solve otherwise. `probeHz` is a typical
+ *  frequency or the band [fMin, fMax] to be used (probed at both ends and the middle);
  *  `reduction` may be shared with other users of the same system (see modal.ts). */
-export function transferEvaluator(sys: TransferSys, probeHz?: number, reduction?: ShiftedReduction | null): TransferEvaluator {
+export function transferEvaluator(sys: TransferSys, probeHz?: number | [number, number], reduction?: ShiftedReduction | null): TransferEvaluator {
   const { n, G, C, b, c } = sys;
   const direct: TransferEvaluator = {
     at: (s) => transferDirect(sys, s),
@@ -89,8 +90,14 @@ export function transferEvaluator(sys: TransferSys, probeHz?: number, reduction?
   };
   const fast: TransferEvaluator = { at, atHz: (f) => at({ re: 0, im: 2 * Math.PI * f }), method: 'hessenberg' };
   const w0 = frobenius(G) / frobenius(C);
-  const probe = { re: 0, im: probeHz !== undefined && probeHz > 0 ? 2 * Math.PI * probeHz : w0 };
-  const ref = transferDirect(sys, probe);
-  if (ref && Math.hypot(ref.re, ref.im) > 0 && relErr(fast.at(probe), ref) > 1e-7) return direct;
+  const probes = Array.isArray(probeHz)
+    ? [probeHz[0], Math.sqrt(probeHz[0] * probeHz[1]), probeHz[1]].map((f) => 2 * Math.PI * f)
+    : [probeHz !== undefined && probeHz > 0 ? 2 * Math.PI * probeHz : w0];
+  for (const w of probes) {
+    if (!(w > 0) || !Number.isFinite(w)) continue;
+    const probe = { re: 0, im: w };
+    const ref = transferDirect(sys, probe);
+    if (ref && Math.hypot(ref.re, ref.im) > 0 && relErr(fast.at(probe), ref) > 1e-8) return direct;
+  }
   return fast;
 }

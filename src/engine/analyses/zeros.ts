@@ -7,7 +7,7 @@
 
 import type { Cx, MnaSystem } from '../types';
 import { finiteEigenvalues } from '../linalg/qz';
-import { luComplex, solveComplex } from '../linalg/lu';
+import { scaledLuComplex, solveScaledComplex } from './scaling';
 import { isZeroVector } from './transfer';
 import { REFINE_UP_TO, type Pole } from './poles';
 
@@ -43,9 +43,9 @@ function probe(sys: ZeroSys, s: Cx): { rel: number } | null {
   const Ar = new Float64Array(n * n);
   const Ai = new Float64Array(n * n);
   for (let i = 0; i < n * n; i++) { Ar[i] = G[i] + s.re * C[i]; Ai[i] = s.im * C[i]; }
-  const f = luComplex(Ar, Ai, n);
-  if (f.singularAt >= 0) return null;
-  const [xr, xi] = solveComplex(f, b, new Float64Array(n));
+  const f = scaledLuComplex(Ar, Ai, n);
+  if (f.singular) return null;
+  const [xr, xi] = solveScaledComplex(f, b);
   let hr = 0, hi = 0, xs = 0, cs = 0;
   for (let i = 0; i < n; i++) {
     hr += c[i] * xr[i]; hi += c[i] * xi[i];
