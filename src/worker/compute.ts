@@ -1,0 +1,31 @@
+// The two stages of a run, as pure functions (used inside the worker and by the same-thread
+// fallback alike). Engine failures come back as result issues; nothing here throws.
+import { analyze, buildMna } from '../engine/index';
+import { analyzeFeedback, blackmanAt, type BlackmanResult, type FeedbackResult } from '../engine/feedback/index';
+import type { AnalysisResult } from '../engine/index';
+import type { RunRequest } from './protocol';
+
+export function runStage1(req: RunRequest): AnalysisResult {
+  return analyze(req.netlist, { frequencyHz: req.frequencyHz, off: req.offSources, impedanceSweep: true });
+}
+
+export function runStage2(req: RunRequest): { feedback: FeedbackResult; blackman: Record<string, BlackmanResult> } {
+  const feedback = analyzeFeedback(req.netlist, { off: req.offLoops });
+  const blackman: Record<string, BlackmanResult> = {};
+  if (!feedback.ok || feedback.loops.length === 0) return { feedback, blackman };
+  const built = buildMna(req.netlist);
+  if (!built.system) return { feedback, blackman };
+  const scale: Record<string, number> = {};
+  for (const id of feedback.off) scale[id] = 0;
+  for (const l of feedback.loops) {
+    const key = l.loop.key;
+    if (blackman[key]) continue;
+    // at DC the regulation already holds these factors
+    if (req.frequencyHz === 0 && l.regulation.atHz === 0 && l.regulation.status === 'ok') {
+      blackman[key] = { key, fHz: 0, status: 'ok', tOc: null, nodes: l.regulation.nodes };
+      continue;
+    }
+    blackman[key] = blackmanAt(built.system, key, { fHz: req.frequencyHz, scale });
+  }
+  return { feedback, blackman };
+}
