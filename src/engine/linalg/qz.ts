@@ -13,7 +13,7 @@ import { refineRealEigenvalue, refineComplexEigenvalue } from './refine';
 
 const ULP = 2.220446049250313e-16;
 /** A-priori relative error above which a finite eigenvalue is polished (see finiteEigenvalues). */
-export const REFINE_ABOVE = 1e-13;
+export const REFINE_ABOVE = 1e-12;
 
 export interface GenEigResult {
   alphaRe: Float64Array;
@@ -118,9 +118,10 @@ function byMagnitude(p: { re: number; im: number }, q: { re: number; im: number 
 /** Finite eigenvalues λ = alpha/beta, infinite ones dropped and counted. Infinite means
  *  |beta|/‖B‖ ≤ tol·|alpha|/‖A‖ (norms of the balanced pencil, tol = 100·n·ulp).
  *  With refine (default) a finite λ is polished on the original pencil (see refine.ts) when the
- *  a-priori QZ error estimate ulp·(‖A‖ + |λ|‖B‖)/(|λ|‖B‖) of the active block exceeds
- *  REFINE_ABOVE, i.e. when |λ| is small against the pencil's own scale ‖A‖/‖B‖ (stiff
- *  networks); the others are already at that accuracy times their condition number. */
+ *  a-priori QZ error estimate ulp·(S + |λ|)/|λ| exceeds REFINE_ABOVE, S being the scale of the
+ *  active block (max of ‖A‖/‖B‖ and its largest finite |λ|): i.e. when |λ| lies more than
+ *  ~4 decades below the block's scale (stiff networks). The others are at that accuracy times
+ *  their condition number; polishing every λ would cost one LU each. */
 export function finiteEigenvalues(A: Float64Array, B: Float64Array, n: number,
   opts: { refine?: boolean; balance?: boolean; scale?: boolean } = {}): FiniteEigenvalues {
   const r = solve(A, B, n, opts.balance !== false, opts.scale === true);
@@ -135,30 +136,44 @@ export function finiteEigenvalues(A: Float64Array, B: Float64Array, n: number,
     return b === 0 || Math.abs(b) * r.normA <= tol * Math.hypot(r.alphaRe[k], r.alphaIm[k]) * r.normB;
   };
   const scale = { normA: frob(A), normB: frob(B) };
-  const wantsPolish = (k: number, mag: number) => opts.refine !== false && k >= r.ilo && k <= r.ihi &&
-    ULP * (r.activeNormA + mag * r.activeNormB) > REFINE_ABOVE * mag * r.activeNormB;
+  // Raw QZ values first: the polish of one must stay closer to it than to any other.
+  const raw: { k: number; re: number; im: number }[] = [];
   for (let k = 0; k < n; k++) {
     if (isInfinite(k)) { infiniteCount++; continue; }
-    const re = r.alphaRe[k] / r.beta[k];
-    const im = r.alphaIm[k] / r.beta[k];
-    const refine = wantsPolish(k, Math.hypot(re, im));
-    if (im === 0) {
-      const v = refine ? refineRealEigenvalue(A, B, n, re, scale) : null;
-      values.push({ re: v !== null && accept(v, 0, re, 0) ? v : re, im: 0 });
-    } else if (im > 0) {
-      const v = refine ? refineComplexEigenvalue(A, B, n, re, im, scale) : null;
-      const ok = v !== null && v.im > 0 && accept(v.re, v.im, re, im);
-      const vr = ok ? v.re : re, vi = ok ? v.im : im;
-      values.push({ re: vr, im: vi }, { re: vr, im: -vi });
+    raw.push({ k, re: r.alphaRe[k] / r.beta[k], im: r.alphaIm[k] / r.beta[k] });
+  }
+  // Scale of the active block: its norm ratio or its largest finite eigenvalue, whichever is
+  // larger; QZ's absolute error is about ulp times that scale.
+  let blockScale = r.activeNormB > 0 ? r.activeNormA / r.activeNormB : 0;
+  for (const v of raw) if (v.k >= r.ilo && v.k <= r.ihi) blockScale = Math.max(blockScale, Math.hypot(v.re, v.im));
+  const wantsPolish = (k: number, mag: number) => opts.refine !== false && k >= r.ilo && k <= r.ihi &&
+    ULP * (blockScale + mag) > REFINE_ABOVE * mag;
+  // Polish the members with im ≥ 0 (a pair's other member is its exact conjugate).
+  const heads = raw.filter((v) => v.im >= 0);
+  const final = heads.map((v) => {
+    if (!wantsPolish(v.k, Math.hypot(v.re, v.im))) return { re: v.re, im: v.im, moved: 0 };
+    const p = v.im === 0
+      ? (() => { const x = refineRealEigenvalue(A, B, n, v.re, scale); return x === null ? null : { re: x, im: 0 }; })()
+      : refineComplexEigenvalue(A, B, n, v.re, v.im, scale);
+    if (p === null || (v.im > 0 && !(p.im > 0))) return { re: v.re, im: v.im, moved: 0 };
+    return { re: p.re, im: p.im, moved: Math.hypot(p.re - v.re, p.im - v.im) };
+  });
+  // Two QZ values polished onto the same eigenvalue: the one that moved farther reverts.
+  for (let i = 0; i < final.length; i++) {
+    if (final[i].moved === 0) continue;
+    for (let j = 0; j < final.length; j++) {
+      if (j === i) continue;
+      const d = Math.hypot(final[i].re - final[j].re, final[i].im - final[j].im);
+      if (d <= 1e-6 * Math.hypot(final[i].re, final[i].im) && final[i].moved >= final[j].moved) {
+        final[i] = { re: heads[i].re, im: heads[i].im, moved: 0 };
+        break;
+      }
     }
-    // im < 0: the conjugate of the preceding positive member, already pushed.
+  }
+  for (const v of final) {
+    values.push({ re: v.re, im: v.im });
+    if (v.im > 0) values.push({ re: v.re, im: -v.im });
   }
   values.sort(byMagnitude);
   return { values, infiniteCount, status: r.status, message: r.message };
-}
-
-/** A polished value is kept only if it stayed near the QZ value (it did not jump to another
- *  eigenvalue); 1e-6 relative is far above the QZ error of any λ worth polishing. */
-function accept(re: number, im: number, re0: number, im0: number): boolean {
-  return Math.hypot(re - re0, im - im0) <= 1e-6 * Math.hypot(re0, im0);
 }

@@ -7,7 +7,12 @@ import { luReal, solveReal, solveRealTransposed, luComplex, solveComplex, solveC
 
 /** Relative offset of the factorisation shift from λ. */
 const SHIFT_OFFSET = 1e-9;
-const STEPS = 3;
+const STEPS = 4;
+/** Factorisations at most: when the first shift was poor (QZ far off for a tiny λ), the
+ *  quotient is refactored at, i.e. Rayleigh-quotient iteration, which converges fast. */
+const ROUNDS = 3;
+/** The last Rayleigh-quotient change must be below this (relative) for the value to count. */
+const CONVERGED = 1e-10;
 
 export interface RefineScale { normA: number; normB: number }
 
@@ -50,16 +55,19 @@ function normalize(v: Float64Array, w?: Float64Array): boolean {
   return true;
 }
 
-/** Refined real eigenvalue, or null when the iteration fails (caller keeps its value). */
+/** Refined real eigenvalue, or null when the iteration fails or does not settle (caller keeps
+ *  its value). */
 export function refineRealEigenvalue(A: Float64Array, B: Float64Array, n: number, lambda: number, s: RefineScale): number | null {
-  const sigma = lambda + shiftOffset(lambda, 0, s);
   const M = new Float64Array(n * n);
-  for (let k = 0; k < n * n; k++) M[k] = A[k] - sigma * B[k];
-  const f = luReal(M, n, 0);
   let x = startVector(n, 1);
   let y = startVector(n, 2);
   const bx = new Float64Array(n), by = new Float64Array(n), ax = new Float64Array(n);
   let value = lambda;
+  let change = Infinity;
+  for (let round = 0; round < ROUNDS && !(change <= CONVERGED * Math.abs(value)); round++) {
+  const sigma = value + shiftOffset(value, 0, s);
+  for (let k = 0; k < n * n; k++) M[k] = A[k] - sigma * B[k];
+  const f = luReal(M, n, 0);
   for (let step = 0; step < STEPS; step++) {
     x = solveReal(f, step === 0 ? x : (matVec(B, n, x, bx), bx));
     y = solveRealTransposed(f, step === 0 ? y : (matTVec(B, n, y, by), by));
@@ -70,26 +78,29 @@ export function refineRealEigenvalue(A: Float64Array, B: Float64Array, n: number
     for (let i = 0; i < n; i++) { num += y[i] * ax[i]; den += y[i] * bx[i]; }
     if (den === 0 || !Number.isFinite(num / den)) return null;
     const next = num / den;
-    const change = Math.abs(next - value);
+    change = Math.abs(next - value);
     value = next;
     if (step > 0 && change <= 4e-16 * Math.abs(value)) break;
   }
-  return value;
+  }
+  return change <= CONVERGED * Math.abs(value) ? value : null;
 }
 
 /** Refined complex eigenvalue (im ≠ 0), or null when the iteration fails. */
 export function refineComplexEigenvalue(A: Float64Array, B: Float64Array, n: number,
   lre: number, lim: number, s: RefineScale): { re: number; im: number } | null {
-  const off = shiftOffset(lre, lim, s);
-  const sr = lre + off * 0.6, si = lim + off * 0.8;
   const Mr = new Float64Array(n * n), Mi = new Float64Array(n * n);
-  for (let k = 0; k < n * n; k++) { Mr[k] = A[k] - sr * B[k]; Mi[k] = -si * B[k]; }
-  const f = luComplex(Mr, Mi, n, 0);
   let xr = startVector(n, 1), xi = startVector(n, 3);
   let yr = startVector(n, 2), yi = startVector(n, 4);
   const t1 = new Float64Array(n), t2 = new Float64Array(n);
   const axr = new Float64Array(n), axi = new Float64Array(n), bxr = new Float64Array(n), bxi = new Float64Array(n);
   let vr = lre, vi = lim;
+  let change = Infinity;
+  for (let round = 0; round < ROUNDS && !(change <= CONVERGED * Math.hypot(vr, vi)); round++) {
+  const off = shiftOffset(vr, vi, s);
+  const sr = vr + off * 0.6, si = vi + off * 0.8;
+  for (let k = 0; k < n * n; k++) { Mr[k] = A[k] - sr * B[k]; Mi[k] = -si * B[k]; }
+  const f = luComplex(Mr, Mi, n, 0);
   for (let step = 0; step < STEPS; step++) {
     if (step === 0) {
       [xr, xi] = solveComplex(f, xr, xi);
@@ -113,9 +124,10 @@ export function refineComplexEigenvalue(A: Float64Array, B: Float64Array, n: num
     if (d === 0) return null;
     const qr = (nr * dr + ni * di) / d, qi = (ni * dr - nr * di) / d;
     if (!Number.isFinite(qr) || !Number.isFinite(qi)) return null;
-    const change = Math.hypot(qr - vr, qi - vi);
+    change = Math.hypot(qr - vr, qi - vi);
     vr = qr; vi = qi;
     if (step > 0 && change <= 4e-16 * Math.hypot(vr, vi)) break;
   }
-  return { re: vr, im: vi };
+  }
+  return change <= CONVERGED * Math.hypot(vr, vi) ? { re: vr, im: vi } : null;
 }
