@@ -101,12 +101,16 @@ export function applyElkLayout(draft: Draft<DrawingDocument> | DrawingDocument, 
   // Rail stubs: moving parts bring theirs; fixed pins on a rebuilt rail net get one as well.
   const stubs: { part: PartId; stub: RailStub; net: string; world: boolean }[] = [];
   for (const m of model.moving) for (const s of m.stubs) stubs.push({ part: m.id, stub: s, net: split.netOfPin[pinKey({ part: m.id, pin: s.pin })], world: false });
+  // A fixed pin still sitting on a rail symbol that stays needs none.
+  const railPoints = new Set<string>();
+  for (const p of Object.values(doc.parts)) if (p.kind === 'ground' || p.kind === 'supply') for (const q of placedPins(p)) railPoints.add(`${q.x},${q.y}`);
   for (const net of model.nets) {
     if (!net.rail || !rebuilt.has(net.key)) continue;
     for (const k of net.pins) {
       const part = k.slice(0, k.lastIndexOf('#')) as PartId;
       if (movingIds.has(part)) continue;
       const pin = placedPins(source.parts[part]).find((p) => `${part}#${p.name}` === k);
+      if (pin && railPoints.has(`${pin.x},${pin.y}`)) continue;
       if (pin) stubs.push({ part, stub: railStub(pin, net.rail, net.railName), net: net.key, world: true });
     }
   }

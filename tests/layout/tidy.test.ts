@@ -90,6 +90,18 @@ describe('tidy layout', () => {
     expect(sameConnectivity(flagged, r2.doc)).toBe(true);
   });
 
+  it('tidies only the selection when parts are selected', async () => {
+    const doc = csStage();
+    const ed = createEditor(doc);
+    ed.select(['part:c1', 'part:out1']);
+    const r = await tidyEditor(ed, elk);
+    expect(r.status).toBe('ok');
+    for (const id of ['part:in1', 'part:m1', 'part:r1'] as const) {
+      expect({ x: ed.document.parts[id].x, y: ed.document.parts[id].y }).toEqual({ x: doc.parts[id].x, y: doc.parts[id].y });
+    }
+    expectTidy(doc, ed.document);
+  });
+
   it('is one undo step in the editor', async () => {
     const doc = csStage();
     const ed = createEditor(doc);
