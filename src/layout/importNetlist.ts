@@ -178,3 +178,17 @@ function sameNets(net: Netlist, doc: DrawingDocument): string | null {
   }
   return null;
 }
+
+/** Import pasted or opened text: an engine netlist as JSON. Bad JSON is a message, not a throw. */
+export async function importNetlistText(text: string, elk: ElkRunner): Promise<ImportResult> {
+  let json: unknown;
+  try {
+    json = JSON.parse(text);
+  } catch (e) {
+    return { ok: false, doc: emptyDocument(), messages: [`the text is not valid JSON (${(e as Error).message})`] };
+  }
+  if ((json as { format?: unknown } | null)?.format !== 'polesketch-netlist') {
+    return { ok: false, doc: emptyDocument(), messages: ['the text is not an engine netlist (expected "format": "polesketch-netlist")'] };
+  }
+  return netlistToDrawing(json, elk);
+}

@@ -3,7 +3,7 @@ import { describe, expect, it } from 'vitest';
 import { analyze } from '../../src/engine/index';
 import type { Netlist } from '../../src/engine/types';
 import { documentToNetlist } from '../../src/schematic/toNetlist';
-import { netlistToDrawing } from '../../src/layout/importNetlist';
+import { importNetlistText, netlistToDrawing } from '../../src/layout/importNetlist';
 import { nodeElk } from '../../src/layout/elkNode';
 import { badWires, overlappingBodies, wiresThroughBodies } from './invariants';
 
@@ -54,6 +54,12 @@ describe('netlist import', () => {
     const bad = await netlistToDrawing({ format: 'polesketch-netlist', version: 1, parts: [{ name: 'R1', kind: 'resistor', pins: { p: 'a' }, values: { value: '1k' } }] }, elk);
     expect(bad.ok).toBe(false);
     expect(bad.messages.join(' ')).toMatch(/R1/);
+    const text = await importNetlistText('{"format": "polesketch-netlist", ', elk);
+    expect(text.ok).toBe(false);
+    expect(text.messages[0]).toMatch(/not valid JSON/);
+    expect((await importNetlistText('{"format": "polesketch-drawing"}', elk)).messages[0]).toMatch(/not an engine netlist/);
+    const pasted = await importNetlistText(readFileSync(new URL(examples[0], dir), 'utf8'), elk);
+    expect(pasted.ok).toBe(true);
     const junk = await netlistToDrawing(42, elk);
     expect(junk.ok).toBe(false);
     expect(junk.messages.length).toBeGreaterThan(0);
