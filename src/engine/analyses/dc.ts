@@ -9,86 +9,32 @@
 // found from the O(1) and O(s) equations: G·x₀ = u − C·W·a (a = K⁻¹Vᵀu), Vᵀ·C·x₀ = 0.
 
 import type { MnaSystem } from '../types';
-import { luReal, type RealLU } from '../linalg/lu';
+import { equilibrate, type Scales } from './scaling';
+import { leftNullVectors, rightNullVectors, rrlu, solveParticular, type RankRevealingLU } from './rrlu';
 
 /** 'degenerate': G is singular but the simple model above does not apply (K singular: a repeated
- *  pole at s = 0 such as cascaded integrators, or left/right null spaces of different size
- *  numerically); DC figures are then undefined rather than computed. */
+ *  pole at s = 0 such as cascaded integrators); DC figures are then undefined rather than computed. */
 export type DcStatus = 'regular' | 'integrating' | 'degenerate';
 
 export interface DcFactor {
   n: number;
-  lu: RealLU;
+  /** Rank-revealing LU of the equilibrated R·G·S. */
+  lu: RankRevealingLU;
   status: DcStatus;
   /** Right / left null vectors of G (empty when G is regular). */
   right: Float64Array[];
   left: Float64Array[];
   /** K⁻¹ = (VᵀCW)⁻¹, m×m row-major (empty when G is regular). */
   kInv: Float64Array;
-  /** Pivot tolerance used to tell a zero pivot. */
-  pivotTol: number;
   C: Float64Array;
+  /** Equilibration of G: the factor is of R·G·S. */
+  sc: Scales;
 }
 
+/** Pivots below this fraction of the (equilibrated) largest entry end the factorisation. */
 const REL_PIVOT = 1e-14;
 /** A residue below this fraction of ‖z‖·‖W·a‖ is treated as exactly zero (bounded). */
 const REL_RESIDUE = 1e-9;
-
-function transpose(A: Float64Array, n: number): Float64Array {
-  const T = new Float64Array(n * n);
-  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) T[j * n + i] = A[i * n + j];
-  return T;
-}
-
-function maxAbs(A: Float64Array): number {
-  let m = 0;
-  for (let i = 0; i < A.length; i++) m = Math.max(m, Math.abs(A[i]));
-  return m;
-}
-
-function zeroPivots(f: RealLU, tol: number): number[] {
-  const out: number[] = [];
-  for (let k = 0; k < f.n; k++) if (Math.abs(f.lu[k * f.n + k]) <= tol) out.push(k);
-  return out;
-}
-
-/** Right null vector of PA = LU belonging to zero pivot k: U·w = 0 with w_k = 1, w_(j>k) = 0. */
-function nullFromU(f: RealLU, k: number, zero: Set<number>): Float64Array {
-  const { n, lu } = f;
-  const w = new Float64Array(n);
-  w[k] = 1;
-  for (let i = k - 1; i >= 0; i--) {
-    if (zero.has(i)) continue;
-    let s = 0;
-    for (let j = i + 1; j <= k; j++) s += lu[i * n + j] * w[j];
-    w[i] = -s / lu[i * n + i];
-  }
-  let norm = 0;
-  for (let i = 0; i < n; i++) norm = Math.max(norm, Math.abs(w[i]));
-  for (let i = 0; i < n; i++) w[i] /= norm;
-  return w;
-}
-
-/** Solve A·x = u where zero pivots are free variables set to 0 (a particular solution when u is
- *  in the range of A). */
-export function solveFree(f: RealLU, u: Float64Array, tol: number): Float64Array {
-  const { n, lu, perm } = f;
-  const x = new Float64Array(n);
-  for (let i = 0; i < n; i++) x[i] = u[perm[i]];
-  for (let i = 0; i < n; i++) {
-    let s = x[i];
-    for (let j = 0; j < i; j++) s -= lu[i * n + j] * x[j];
-    x[i] = s;
-  }
-  for (let i = n - 1; i >= 0; i--) {
-    const d = lu[i * n + i];
-    if (Math.abs(d) <= tol) { x[i] = 0; continue; }
-    let s = x[i];
-    for (let j = i + 1; j < n; j++) s -= lu[i * n + j] * x[j];
-    x[i] = s / d;
-  }
-  return x;
-}
 
 function matVec(A: Float64Array, n: number, x: Float64Array): Float64Array {
   const y = new Float64Array(n);
@@ -107,47 +53,66 @@ function dot(a: Float64Array, b: Float64Array): number {
 }
 
 function invertSmall(K: Float64Array, m: number): Float64Array | null {
-  const f = luReal(K, m);
-  if (f.singularAt >= 0 || f.minPivotRatio < 1e-12) return null;
+  let big = 0;
+  for (let i = 0; i < m * m; i++) big = Math.max(big, Math.abs(K[i]));
+  const f = rrlu(K, m, 1e-12 * big);
+  if (f.rank < m) return null;
   const inv = new Float64Array(m * m);
   for (let j = 0; j < m; j++) {
     const e = new Float64Array(m);
     e[j] = 1;
-    const x = solveFree(f, e, 0);
+    const x = solveParticular(f, e);
     for (let i = 0; i < m; i++) inv[i * m + j] = x[i];
   }
   return inv;
 }
 
-/** Factor G once and find its null spaces (if any). */
+function rescale(v: Float64Array, d: Float64Array): Float64Array {
+  let m = 0;
+  for (let i = 0; i < v.length; i++) { v[i] *= d[i]; m = Math.max(m, Math.abs(v[i])); }
+  if (m > 0) for (let i = 0; i < v.length; i++) v[i] /= m;
+  return v;
+}
+
+/** Factor G once and find its null spaces (if any). G is equilibrated first (scaling.ts), so the
+ *  rank decision is relative to each row's and column's own size. */
 export function factorDc(sys: Pick<MnaSystem, 'n' | 'G' | 'C'>): DcFactor {
   const { n, G, C } = sys;
-  const scale = maxAbs(G);
-  const pivotTol = Math.max(1e-300, REL_PIVOT * scale);
-  const lu = luReal(G, n, REL_PIVOT);
-  const zr = zeroPivots(lu, pivotTol);
-  if (zr.length === 0) return { n, lu, status: 'regular', right: [], left: [], kInv: new Float64Array(0), pivotTol, C };
-  const luT = luReal(transpose(G, n), n, REL_PIVOT);
-  const zl = zeroPivots(luT, pivotTol);
-  const zrSet = new Set(zr);
-  const zlSet = new Set(zl);
-  const right = zr.map((k) => nullFromU(lu, k, zrSet));
-  const left = zl.map((k) => nullFromU(luT, k, zlSet));
-  const m = right.length;
-  let status: DcStatus = 'integrating';
-  let kInv: Float64Array = new Float64Array(0);
-  if (left.length !== m) {
-    status = 'degenerate';
-  } else {
-    const K = new Float64Array(m * m);
-    for (let j = 0; j < m; j++) {
-      const cw = matVec(C, n, right[j]);
-      for (let i = 0; i < m; i++) K[i * m + j] = dot(left[i], cw);
+  const mag = new Float64Array(n * n);
+  for (let k = 0; k < n * n; k++) mag[k] = Math.abs(G[k]);
+  const sc = equilibrate(mag, n);
+  const Gs = new Float64Array(n * n);
+  let big = 0;
+  for (let i = 0; i < n; i++) {
+    for (let j = 0; j < n; j++) {
+      const v = sc.r[i] * G[i * n + j] * sc.c[j];
+      Gs[i * n + j] = v;
+      big = Math.max(big, Math.abs(v));
     }
-    const inv = invertSmall(K, m);
-    if (inv) kInv = inv; else status = 'degenerate';
   }
-  return { n, lu, status, right, left, kInv, pivotTol, C };
+  const lu = rrlu(Gs, n, Math.max(1e-300, REL_PIVOT * big));
+  const base = { n, lu, C, sc, right: [] as Float64Array[], left: [] as Float64Array[], kInv: new Float64Array(0) as Float64Array };
+  if (lu.rank === n) return { ...base, status: 'regular' };
+  // Null vectors of R·G·S map back as w = S·w', v = R·v'.
+  const right = rightNullVectors(lu).map((w) => rescale(w, sc.c));
+  const left = leftNullVectors(lu).map((v) => rescale(v, sc.r));
+  const m = right.length;
+  const K = new Float64Array(m * m);
+  for (let j = 0; j < m; j++) {
+    const cw = matVec(C, n, right[j]);
+    for (let i = 0; i < m; i++) K[i * m + j] = dot(left[i], cw);
+  }
+  const inv = invertSmall(K, m);
+  return { ...base, right, left, kInv: inv ?? new Float64Array(0), status: inv ? 'integrating' : 'degenerate' };
+}
+
+/** G·x = u with the equilibrated factor: (R·G·S)·y = R·u, x = S·y (free variables 0). */
+function solveG(f: DcFactor, u: Float64Array): Float64Array {
+  const ru = new Float64Array(f.n);
+  for (let i = 0; i < f.n; i++) ru[i] = f.sc.r[i] * u[i];
+  const y = solveParticular(f.lu, ru);
+  for (let i = 0; i < f.n; i++) y[i] *= f.sc.c[i];
+  return y;
 }
 
 export interface DcSolution {
@@ -160,7 +125,7 @@ export interface DcSolution {
 /** Response to u at s → 0. Returns null when the DC behaviour is degenerate (see DcStatus). */
 export function dcSolve(f: DcFactor, u: Float64Array): DcSolution | null {
   const { n } = f;
-  if (f.status === 'regular') return { x: solveFree(f.lu, u, f.pivotTol), pole: new Float64Array(n) };
+  if (f.status === 'regular') return { x: solveG(f, u), pole: new Float64Array(n) };
   if (f.status === 'degenerate') return null;
   const m = f.right.length;
   const vu = f.left.map((v) => dot(v, u));
@@ -171,7 +136,7 @@ export function dcSolve(f: DcFactor, u: Float64Array): DcSolution | null {
   const cwa = matVec(f.C, n, pole);
   const rhs = new Float64Array(n);
   for (let i = 0; i < n; i++) rhs[i] = u[i] - cwa[i];
-  const xp = solveFree(f.lu, rhs, f.pivotTol);
+  const xp = solveG(f, rhs);
   // β = −K⁻¹·Vᵀ·C·x_p fixes the null-space component of x₀ (O(s) equation).
   const cxp = matVec(f.C, n, xp);
   const vc = f.left.map((v) => dot(v, cxp));
