@@ -14,6 +14,7 @@ import { GROUND_NET } from '../schematic/connectivity';
 import { isSymbolKind, placedPins, symbolOf } from '../schematic/symbols';
 import { documentToNetlist } from '../schematic/toNetlist';
 import { applyElkLayout, type ApplyOutcome } from './applyLayout';
+import { layoutProblems } from './checks';
 import { toElkGraph, type ElkRunner } from './elkGraph';
 import { partBox, railStub, type LayoutModel, type LayoutNet, type LayoutPart, type RailStub } from './model';
 
@@ -157,6 +158,8 @@ export async function netlistToDrawing(input: unknown, elk: ElkRunner): Promise<
   let outcome: ApplyOutcome = { ok: false, message: 'not run', rerouted: 0, wiresFromElk: 0 };
   const placed = produce(doc, (d) => { outcome = applyElkLayout(d, doc, model, laid); });
   if (!outcome.ok) return { ok: false, doc: placed, messages: [...messages, `layout: ${outcome.message}`] };
+  const problems = layoutProblems(placed);
+  if (problems.length) return { ok: false, doc: placed, messages: [...messages, `layout: ${problems[0]}`] };
   const check = sameNets(net, placed);
   if (check) return { ok: false, doc: placed, messages: [...messages, check] };
   return { ok: true, doc: placed, messages };

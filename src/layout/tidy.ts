@@ -9,6 +9,7 @@ import { documentToNetlist } from '../schematic/toNetlist';
 import type { Editor } from '../editor/types';
 import { symbolOf } from '../schematic/symbols';
 import { applyElkLayout, type ApplyOutcome } from './applyLayout';
+import { layoutProblems } from './checks';
 import { toElkGraph, type ElkGraphJson, type ElkRunner } from './elkGraph';
 import { buildModel, railSplitConnectivity, RAIL_KINDS, type ModelOptions } from './model';
 
@@ -58,6 +59,8 @@ export async function tidyDocument(doc: DrawingDocument, elk: ElkRunner, opts: M
   if (!sameConnectivity(doc, next)) {
     return { status: 'failed', doc, graph, outcome, message: 'Tidy left the drawing as it was: the rebuilt wires would have changed the connections.' };
   }
+  const problems = layoutProblems(next);
+  if (problems.length) return { status: 'failed', doc, graph, outcome, message: `Tidy left the drawing as it was: ${problems[0]}.` };
   const before = documentToNetlist(doc).netlist, after = documentToNetlist(next).netlist;
   if (before && JSON.stringify(before) !== JSON.stringify(after)) {
     return { status: 'failed', doc, graph, outcome, message: 'Tidy left the drawing as it was: the netlist would have changed.' };
