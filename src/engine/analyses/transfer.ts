@@ -51,6 +51,7 @@ export interface TransferEvaluator {
 }
 
 const MAX_SPREAD = 1e5;
+const PROBE_TOL = 1e-6;
 
 function frobenius(A: Float64Array): number {
   let s = 0;
@@ -97,7 +98,8 @@ export function transferEvaluator(sys: TransferSys, probeHz?: number | [number, 
     if (!(w > 0) || !Number.isFinite(w)) continue;
     const probe = { re: 0, im: w };
     const ref = transferDirect(sys, probe);
-    if (ref && Math.hypot(ref.re, ref.im) > 0 && relErr(fast.at(probe), ref) > 1e-8) return direct;
+    // A broken reduction shows as a gross mismatch; roundoff deep in a stop band (≈1e-8) is fine.
+    if (ref && Math.hypot(ref.re, ref.im) > 0 && relErr(fast.at(probe), ref) > PROBE_TOL) return direct;
   }
   return fast;
 }
