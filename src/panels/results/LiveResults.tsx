@@ -1,0 +1,104 @@
+// The results area fed by the live analysis store: a summary line (gain, bandwidth, unity gain,
+// busy mark), then tabs of our own: Poles, Nodes, Loops, Compare, Plots.
+import { useMemo, useState } from 'react';
+import type { LiveActions, LiveState } from '../../live/types';
+import { PolesList } from './PolesList';
+import { NodeTable } from './NodeTable';
+import { LoopsList } from './LoopsList';
+import { ComparePanel } from './ComparePanel';
+import { PlotsPanel } from './PlotsPanel';
+import { groupOf, loopGroups } from './loopRows';
+import { gainUnit, transferLabel } from './plotInputs';
+import { fmtDb, fmtGain, fmtHz, fmtNum, toDb } from './format';
+import './results.css';
+
+export type ResultsTab = 'poles' | 'nodes' | 'loops' | 'compare' | 'plots';
+const TABS: [ResultsTab, string][] = [['poles', 'Poles'], ['nodes', 'Nodes'], ['loops', 'Loops'], ['compare', 'A/B'], ['plots', 'Plots']];
+
+export interface LiveResultsProps {
+  state: LiveState;
+  actions: LiveActions;
+  initialTab?: ResultsTab;
+}
+
+function labelsOf(state: LiveState, ids: string[]): string[] {
+  return [...new Set(ids.map((id) => state.loops[id]?.label ?? id))];
+}
+
+export function LiveResults({ state, actions, initialTab = 'poles' }: LiveResultsProps) {
+  const [tab, setTab] = useState<ResultsTab>(initialTab);
+  const { result, feedback, settings } = state;
+  const groups = useMemo(() => loopGroups(feedback), [feedback]);
+  const selGroup = groupOf(groups, settings.selectedLoopId);
+  const selEntry = settings.selectedLoopId ? state.loops[settings.selectedLoopId] : undefined;
+  const offSources = settings.offLoopIds.map((id) => state.loops[id]?.key).filter((k): k is string => !!k);
+  const errors = state.issues.filter((i) => i.severity === 'error');
+  const busy = state.status === 'busy';
+
+  let body: React.ReactNode;
+  if (state.failure) {
+    body = <p className="rp-error" role="alert">The analysis could not run: {state.failure}</p>;
+  } else if (!result || !result.ok) {
+    body = errors.length ? (
+      <div role="alert" className="rp-error" data-testid="results-errors">
+        <p>No results until the drawing is fixed:</p>
+        <ul>{errors.slice(0, 6).map((i, k) => <li key={k}>{i.message}</li>)}</ul>
+        {errors.length > 6 ? <p>… and {errors.length - 6} more (see Drawing checks).</p> : null}
+      </div>
+    ) : <p className="rp-empty" data-testid="results-waiting">{busy ? 'Analysing…' : 'Draw a circuit, mark its input source and output to see its poles and node impedances.'}</p>;
+  } else {
+    const gu = gainUnit(state.netlist, result);
+    const g = result.dcGain;
+    const gainText = g === null ? '—' : gu.dimensionless ? `${fmtNum(g)} ${gu.unit} (${fmtDb(toDb(g))})` : fmtGain(g, gu.unit);
+    body = (
+      <>
+        <dl className="rp-summary" data-testid="results-summary">
+          <div><dt>{transferLabel(result)} at DC</dt><dd data-testid="dc-gain">{gainText}</dd></div>
+          <div><dt>−3 dB</dt><dd>{fmtHz(result.bandwidthHz)}</dd></div>
+          <div><dt>unity gain</dt><dd>{fmtHz(result.unityGainHz)}</dd></div>
+        </dl>
+        <div className="rp-tabs" role="tablist" aria-label="Results">
+          {TABS.map(([k, text]) => (
+            <button key={k} type="button" role="tab" aria-selected={k === tab} onClick={() => setTab(k)}>
+              {text}
+              {k === 'loops' && groups.length ? <span className="rp-count"> {groups.length}</span> : null}
+              {k === 'loops' && groups.some((x) => x.warnings.length) ? <span className="rp-flag" title="a loop has a warning"> ⚠</span> : null}
+              {k === 'compare' && state.pinnedA ? <span className="rp-count"> on</span> : null}
+            </button>
+          ))}
+        </div>
+        <div className="rp-tab" role="tabpanel">
+          {tab === 'poles' && (
+            <PolesList result={result} hoveredPoleIndex={settings.hoveredPoleIndex} hoveredNet={settings.hoveredNet}
+              onHoverPole={actions.hoverPole} onPickNet={(n) => actions.selectNet(n)} />
+          )}
+          {tab === 'nodes' && (
+            <NodeTable result={result} hoveredNet={settings.hoveredNet} selectedNet={settings.selectedNet}
+              onHoverNet={actions.hoverNet} onSelectNet={actions.selectNet}
+              blackman={selGroup ? state.blackman[selGroup.key] ?? null : null} loopLabel={selGroup?.label ?? null} />
+          )}
+          {tab === 'loops' && (
+            <LoopsList groups={groups} known={state.loops} offLoopIds={settings.offLoopIds} selectedLoopId={settings.selectedLoopId}
+              pending={state.feedbackPending} onSelect={actions.selectLoop} onSetEnabled={actions.setLoopEnabled} notes={feedback?.notes} />
+          )}
+          {tab === 'compare' && (
+            <ComparePanel pinned={state.pinnedA} current={result} busy={busy} onPin={actions.pinA} onClear={actions.clearPin}
+              offNow={labelsOf(state, settings.offLoopIds)} offPinned={labelsOf(state, state.pinnedA?.settings.offLoopIds ?? [])} />
+          )}
+          {tab === 'plots' && (
+            <PlotsPanel result={result} feedback={feedback} netlist={state.netlist} offSources={offSources}
+              loop={selGroup ? { key: selGroup.key, label: selGroup.label } : selEntry ? { key: selEntry.key, label: selEntry.label } : null}
+              node={settings.selectedNet} pinned={state.pinnedA?.result ?? null} feedbackPending={state.feedbackPending} />
+          )}
+        </div>
+      </>
+    );
+  }
+  return (
+    <section className="results rp" aria-label="Results" aria-busy={busy}>
+      <h2>Results {busy ? <span className="rp-busy" role="status" aria-label="analysing">analysing…</span> : null}</h2>
+      {body}
+      <p className="rp-caution">Linear small-signal estimates about the entered bias point.</p>
+    </section>
+  );
+}

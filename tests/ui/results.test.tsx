@@ -1,0 +1,146 @@
+// @vitest-environment jsdom
+// The results panels on the live store (same-thread runner in jsdom): a changed value changes the
+// displayed pole, switching a loop off changes the held node's impedance read-out, compare mode
+// shows A and B, and a structural error shows its message instead of numbers.
+import { describe, it, expect } from 'vitest';
+import { act, fireEvent, render, screen, waitFor, within } from '@testing-library/react';
+import { ResultsPanel } from '../../src/panels/ResultsPanel';
+import { createLiveStore } from '../../src/live/index';
+import type { LiveStore } from '../../src/live/index';
+import { EXAMPLE_DRAWINGS } from '../../src/examples/index';
+import { documentToNetlist } from '../../src/schematic/toNetlist';
+import { expandNetlist } from '../../src/engine/mna';
+import type { DrawingDocument } from '../../src/schematic/document';
+import { drawing, part, pt } from '../schematic/build';
+
+/** Parse the panel's SI text ("15.9 MHz", "3.75 GΩ", "10.0 ns") back to a number. */
+function si(text: string): number {
+  const m = /(-|−)?([0-9.]+)\s*([yzafpnµumkMGTPE]?)/.exec(text.trim());
+  if (!m) throw new Error(`not an SI figure: "${text}"`);
+  const exp: Record<string, number> = { y: -24, z: -21, a: -18, f: -15, p: -12, n: -9, µ: -6, u: -6, m: -3, '': 0, k: 3, M: 6, G: 9, T: 12, P: 15, E: 18 };
+  return (m[1] ? -1 : 1) * Number(m[2]) * 10 ** exp[m[3]];
+}
+
+// Input source → R1 → out, C1 from out to ground: a single RC low-pass.
+function rcDrawing(c: string): DrawingDocument {
+  return drawing([
+    part('input', 'IN1', 40, 100),
+    part('resistor', 'R1', 110, 130, { params: { value: '10k' } }),
+    part('capacitor', 'C1', 110, 190, { params: { value: c } }),
+    part('ground', 'GND1', 110, 220),
+    part('output', 'OUT1', 150, 160),
+    part('netLabel', 'NL1', 110, 160, { params: { net: 'out' } }),
+  ], [['i', pt(60, 100), pt(110, 100)], ['o', pt(110, 160), pt(130, 160)]]);
+}
+
+function mount(): LiveStore {
+  const store = createLiveStore({ throttleMs: 0 });
+  render(<ResultsPanel store={store} />);
+  return store;
+}
+
+const tab = (name: RegExp) => fireEvent.click(screen.getByRole('tab', { name }));
+const settled = (store: LiveStore) => waitFor(() => expect(store.getState().stage).toBe(2), { timeout: 20000 });
+const firstPoleHz = () => si(screen.getAllByTestId('pole-hz')[0].textContent!);
+const nodeCell = (node: string, id: string) => {
+  const row = screen.getAllByTestId('node-row').find((r) => r.getAttribute('data-node') === node)!;
+  return within(row).getByTestId(id).textContent!;
+};
+
+describe('results panels on the live store', () => {
+  it('a changed capacitor value changes the displayed pole and the node time constant', async () => {
+    const store = mount();
+    act(() => store.actions.submit(rcDrawing('1p')));
+    await settled(store);
+    // Single-pole RC low-pass: p = 1/(2πRC) (textbook closed form): 10 kΩ · 1 pF → 15.9 MHz.
+    expect(firstPoleHz()).toBeCloseTo(1 / (2 * Math.PI * 10e3 * 1e-12), -5);
+    act(() => store.actions.submit(rcDrawing('2p')));
+    await settled(store);
+    await waitFor(() => expect(firstPoleHz()).toBeCloseTo(1 / (2 * Math.PI * 10e3 * 2e-12), -4));
+    tab(/Nodes/);
+    // τ = R·C at node out (the source is a short to ground at DC): 10 kΩ · 2 pF = 20 ns.
+    expect(si(nodeCell('out', 'node-tau'))).toBeCloseTo(20e-9, 10);
+    expect(si(nodeCell('out', 'node-z'))).toBeCloseTo(10e3, -1);
+  });
+
+  it('switching the regulation loop off lowers the output impedance by the regulated-cascode factor', async () => {
+    const doc = EXAMPLE_DRAWINGS.find((e) => e.id === 'readout-cascode-regulated')!.load();
+    const store = mount();
+    act(() => store.actions.submit(doc));
+    await settled(store);
+    tab(/Nodes/);
+    const zOn = si(nodeCell('out', 'node-z'));
+    tab(/Loops/);
+    const item = screen.getAllByTestId('loop-item').find((e) => e.getAttribute('data-key') === 'A1.A0')!;
+    expect(within(item).getByTestId('loop-holds').textContent).toMatch(/holds the current into out/);
+    fireEvent.click(within(item).getByRole('switch'));
+    await waitFor(() => expect(store.getState().settings.offLoopIds.length).toBe(1));
+    await settled(store);
+    const offItem = screen.getAllByTestId('loop-item').find((e) => e.getAttribute('data-key') === 'A1.A0')!;
+    expect(within(offItem).getByRole('switch').getAttribute('aria-checked')).toBe('false');
+    tab(/Nodes/);
+    const zOff = si(nodeCell('out', 'node-z'));
+    // Regulated cascode at DC, body effect included (Razavi, Design of Analog CMOS ICs, ch. 9 form):
+    // Rout = ro1 + ro2 + ro1·ro2·(gm2·(1 + A) + gmb2); with the booster off (A = 0) the plain cascode.
+    const x = expandNetlist(documentToNetlist(doc).netlist!);
+    const val = (part: string, role: string) => {
+      const e = x.elements.find((el) => el.part === part && el.role === role)!;
+      return e.type === 'vccs' ? e.gm : e.type === 'conductance' ? e.g : NaN;
+    };
+    const ro1 = 1 / val('M1', 'gds'), ro2 = 1 / val('M2', 'gds'), gm2 = val('M2', 'gm'), gmb2 = val('M2', 'gmb');
+    const A = 100; // the drawing's A0
+    const rout = (a: number) => ro1 + ro2 + ro1 * ro2 * (gm2 * (1 + a) + gmb2);
+    expect(zOn / rout(A)).toBeCloseTo(1, 2); // three displayed digits
+    expect(zOff / rout(0)).toBeCloseTo(1, 2);
+    expect(zOn / zOff).toBeGreaterThan(50);
+    // switching it back on restores the read-out
+    tab(/Loops/);
+    const again = screen.getAllByTestId('loop-item').find((e) => e.getAttribute('data-key') === 'A1.A0')!;
+    fireEvent.click(within(again).getByRole('switch'));
+    await waitFor(() => expect(store.getState().settings.offLoopIds.length).toBe(0));
+    await settled(store);
+    tab(/Nodes/);
+    expect(si(nodeCell('out', 'node-z'))).toBeCloseTo(zOn, -7);
+  });
+
+  it('compare mode shows A and B beside each other with the pole movement', async () => {
+    const store = mount();
+    act(() => store.actions.submit(rcDrawing('1p')));
+    await settled(store);
+    tab(/A\/B/);
+    fireEvent.click(screen.getByRole('button', { name: 'Pin as A' }));
+    act(() => store.actions.submit(rcDrawing('4p')));
+    await settled(store);
+    const row = screen.getAllByTestId('cmp-pole')[0];
+    const cells = within(row).getAllByRole('cell').map((c) => c.textContent!);
+    // 1/(2πRC): 15.9 MHz with 1 pF (A), 3.98 MHz with 4 pF (B): the pole moves down by 4.
+    expect(si(cells[0])).toBeCloseTo(15.9e6, -5);
+    expect(si(cells[1])).toBeCloseTo(3.98e6, -4);
+    expect(cells[2]).toBe('÷ 4.00');
+    const node = screen.getAllByTestId('cmp-node').find((r) => r.getAttribute('data-node') === 'out')!;
+    expect(node.textContent).toMatch(/10\.0 ns → 40\.0 ns/); // τ = RC
+    // DC gain of an RC low-pass is 1 in both (common practice): 0 dB change.
+    expect(screen.getByTestId('cmp-Gain-a').textContent).toBe(screen.getByTestId('cmp-Gain-b').textContent);
+    fireEvent.click(screen.getByRole('button', { name: 'End compare' }));
+    expect(store.getState().pinnedA).toBeNull();
+  });
+
+  it('a structural error replaces the numbers with its message', async () => {
+    const store = mount();
+    // R2 and R3 in a ring of their own: that net has no path to ground (a floating node).
+    const doc = drawing([
+      part('input', 'IN1', 40, 100),
+      part('resistor', 'R1', 110, 130, { params: { value: '10k' } }),
+      part('capacitor', 'C1', 110, 190, { params: { value: '1p' } }),
+      part('ground', 'GND1', 110, 220),
+      part('output', 'OUT1', 150, 160),
+      part('resistor', 'R2', 300, 130, { params: { value: '10k' } }),
+      part('resistor', 'R3', 300, 190, { params: { value: '10k' } }),
+    ], [['i', pt(60, 100), pt(110, 100)], ['o', pt(110, 160), pt(130, 160)], ['f', pt(300, 100), pt(300, 70), pt(360, 70), pt(360, 220), pt(300, 220)]]);
+    act(() => store.actions.submit(doc));
+    await waitFor(() => expect(store.getState().status).toBe('error'), { timeout: 20000 });
+    const alert = await screen.findByTestId('results-errors');
+    expect(alert.textContent).toMatch(/no path to ground/);
+    expect(screen.queryAllByTestId('pole-row')).toHaveLength(0);
+  });
+});
