@@ -5,7 +5,8 @@ import type { AnalysisResult, NodeRow } from '../engine/index';
 import { formatSi, SMALL_SIGNAL_CAUTION } from '../engine/index';
 import type { DrawingDocument, Point } from '../schematic/document';
 import { computeConnectivity, GROUND_NET, type NetInfo } from '../schematic/connectivity';
-import type { Badge, SchematicAnnotations } from './annotations';
+import { BADGE_TEXT_SIZE, badgeSize, type Badge, type SchematicAnnotations } from './annotations';
+import { partBox } from '../layout/model';
 import { DEFAULT_SCALE, impedanceColor, legendStops, NO_VALUE_COLOR, scaleFor, type ImpedanceScale } from './colorScale';
 
 export interface AnnotateSettings {
@@ -40,6 +41,21 @@ export function netAnchor(doc: DrawingDocument, net: NetInfo): Point {
   return best ? best.p : { x: net.anchor.x, y: net.anchor.y };
 }
 
+interface Rect { x: number; y: number; width: number; height: number }
+const overlap = (a: Rect, b: Rect) => a.x < b.x + b.width && b.x < a.x + a.width && a.y < b.y + b.height && b.y < a.y + a.height;
+
+/** First of eight spots around the anchor (up-right first) whose box hits nothing taken. */
+export function placeBadge(anchor: Point, size: { width: number; height: number }, taken: Rect[]): Rect {
+  const g = 8, { width: w, height: h } = size;
+  const spots = [
+    { x: anchor.x + g, y: anchor.y - g - h }, { x: anchor.x - g - w, y: anchor.y - g - h },
+    { x: anchor.x + g, y: anchor.y + g }, { x: anchor.x - g - w, y: anchor.y + g },
+    { x: anchor.x + 3 * g, y: anchor.y - 3 * g - h }, { x: anchor.x - 3 * g - w, y: anchor.y - 3 * g - h },
+    { x: anchor.x + 3 * g, y: anchor.y + 3 * g }, { x: anchor.x - 3 * g - w, y: anchor.y + 3 * g },
+  ].map((p) => ({ ...p, width: w, height: h }));
+  return spots.find((r) => !taken.some((t) => overlap(r, t))) ?? spots[0];
+}
+
 export function annotate(doc: DrawingDocument, result: AnalysisResult | null, settings: AnnotateSettings = {}): SchematicAnnotations {
   const column = settings.column ?? 'frequency';
   const out: SchematicAnnotations = { nets: {}, badges: [], slowest: null, loop: null, legend: null, caution: SMALL_SIGNAL_CAUTION };
@@ -54,6 +70,18 @@ export function annotate(doc: DrawingDocument, result: AnalysisResult | null, se
     return anchors.get(name)!;
   };
   const wanted = settings.badges ?? 'all';
+  // Symbols with their pins and text (the layout's part box) are kept clear of badges.
+  const taken: Rect[] = Object.values(doc.parts).map((p) => {
+    const b = partBox(p, []);
+    return { x: p.x + b.x, y: p.y + b.y, width: b.width, height: b.height };
+  });
+  const slow = rows.find((r) => r.slowest);
+  if (slow) {
+    const pole = slow.openAtDc ? 'integrator' : slow.poleHz !== null ? formatSi(slow.poleHz, 'Hz') : '—';
+    out.slowest = { net: slow.name, anchor: anchorOf(slow.name), label: `slowest node ${slow.name}: ${pole}` };
+    // The mark's label (drawn right of and below the anchor) is kept clear of badges.
+    taken.push({ x: out.slowest.anchor.x - 10, y: out.slowest.anchor.y - 10, width: 22 + out.slowest.label.length * BADGE_TEXT_SIZE * 0.58, height: 32 });
+  }
   const fz = result.conditions.frequencyHz;
   for (const r of rows) {
     const ohms = rowOhms(r, column);
@@ -63,13 +91,11 @@ export function annotate(doc: DrawingDocument, result: AnalysisResult | null, se
     const lines = [`${r.name}: |Z| ${z}`];
     if (r.farads > 0) lines.push(`C ${formatSi(r.farads, 'F')}`);
     if (r.tau !== null) lines.push(`τ ${formatSi(r.tau, 's')}`);
-    const badge: Badge = { net: r.name, lines, anchor: anchorOf(r.name) };
+    if (r.poleHz !== null) lines.push(`f ${formatSi(r.poleHz, 'Hz')}`);
+    const anchor = anchorOf(r.name);
+    const badge: Badge = { net: r.name, lines, anchor, box: placeBadge(anchor, badgeSize(lines), taken) };
+    taken.push(badge.box);
     out.badges.push(badge);
-  }
-  const slow = rows.find((r) => r.slowest);
-  if (slow) {
-    const pole = slow.openAtDc ? 'integrator' : slow.poleHz !== null ? formatSi(slow.poleHz, 'Hz') : '—';
-    out.slowest = { net: slow.name, anchor: anchorOf(slow.name), label: `slowest node ${slow.name}: ${pole}` };
   }
   if (settings.loop) {
     const pts = settings.loop.nets.filter((n) => byName.has(n)).map((n) => anchorOf(n));

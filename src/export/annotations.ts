@@ -15,8 +15,17 @@ export interface Badge {
   net: string;
   /** Short text lines, e.g. ["|Z| 12.4 kΩ", "C 1.2 pF", "τ 15 ns"]. */
   lines: string[];
-  /** World point the badge points at (on the net); the badge box sits up and right of it. */
+  /** World point the badge points at (on the net). */
   anchor: Point;
+  /** Where the badge box goes (world units, sized for BADGE_TEXT_SIZE text), clear of symbols
+   *  and of the other badges where the space allows. */
+  box: { x: number; y: number; width: number; height: number };
+}
+
+/** Text size of badge lines (world units) and the box size that holds them. */
+export const BADGE_TEXT_SIZE = 7;
+export function badgeSize(lines: string[]): { width: number; height: number } {
+  return { width: Math.max(...lines.map((l) => l.length * BADGE_TEXT_SIZE * 0.58)) + 8, height: lines.length * (BADGE_TEXT_SIZE + 2) + 4 };
 }
 
 export interface SlowestMark {

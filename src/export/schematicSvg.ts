@@ -10,7 +10,7 @@ import { partValueText } from '../canvas/partText';
 import { INK, INK_SOFT, JUNCTION_RADIUS, WIRE, WIRE_WIDTH } from '../canvas/theme';
 import { formatSi } from '../engine/units';
 import type { SchematicAnnotations, TitleBlock } from './annotations';
-import { EMPTY_ANNOTATIONS } from './annotations';
+import { BADGE_TEXT_SIZE, EMPTY_ANNOTATIONS } from './annotations';
 import { symbolItems, type DrawItem } from './symbolGeometry';
 import { el, esc, idFor, pointsAttr, svgDocument, text } from './svgWriter';
 
@@ -19,7 +19,7 @@ export const SYMBOL_STROKE = 1.5;
 export const LOOP_COLOR = '#7b3f98';
 export const SLOW_COLOR = '#1e2a32';
 const MARGIN = 20;
-const BADGE_SIZE = 7;
+const BADGE_SIZE = BADGE_TEXT_SIZE;
 
 interface Box { x0: number; y0: number; x1: number; y1: number }
 const grow = (b: Box, x: number, y: number) => { b.x0 = Math.min(b.x0, x); b.y0 = Math.min(b.y0, y); b.x1 = Math.max(b.x1, x); b.y1 = Math.max(b.y1, y); };
@@ -102,13 +102,14 @@ function overlaySvg(ann: SchematicAnnotations, box: Box): string {
     ]));
   }
   const badges = ann.badges.map((b) => {
-    const w = Math.max(...b.lines.map((l) => textW(l, BADGE_SIZE))) + 8;
-    const h = b.lines.length * (BADGE_SIZE + 2) + 4;
-    const x = b.anchor.x + 8, y = b.anchor.y - 8 - h;
+    const { x, y, width: w, height: h } = b.box;
     grow(box, x, y); grow(box, x + w, y + h);
+    // Leader from the anchor to the nearest corner of the box.
+    const cx = Math.abs(b.anchor.x - x) < Math.abs(b.anchor.x - (x + w)) ? x : x + w;
+    const cy = Math.abs(b.anchor.y - y) < Math.abs(b.anchor.y - (y + h)) ? y : y + h;
     const color = ann.nets[b.net]?.color ?? WIRE;
     return el('g', { id: idFor('badge', b.net), class: 'badge' }, [
-      el('line', { x1: b.anchor.x, y1: b.anchor.y, x2: x, y2: y + h, stroke: color, 'stroke-width': 0.8 }),
+      el('line', { x1: b.anchor.x, y1: b.anchor.y, x2: cx, y2: cy, stroke: color, 'stroke-width': 0.8 }),
       el('rect', { x, y, width: w, height: h, rx: 2, fill: '#ffffff', 'fill-opacity': 0.9, stroke: color, 'stroke-width': 1 }),
       ...b.lines.map((l, i) => text(x + 4, y + 2 + (i + 0.5) * (BADGE_SIZE + 2), l, { 'font-size': BADGE_SIZE, dy: '0.35em', fill: INK })),
     ]);
