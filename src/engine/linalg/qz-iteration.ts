@@ -135,6 +135,8 @@ export function qzIterate(H: Float64Array, T: Float64Array, m: number): QzOutput
 
 /** One implicit double-shift QZ step on the block [f, l] (size ≥ 3), Golub & Van Loan Alg. 7.7.2.
  *  Returns false if the shift polynomial is not finite. */
+const gg = new Float64Array(3); // rotation scratch of doubleShiftStep (no allocation per step)
+
 function doubleShiftStep(H: Float64Array, T: Float64Array, m: number, f: number, l: number,
   exceptional: boolean, v: Float64Array): boolean {
   // Shifts: eigenvalues of the trailing 2×2 of M = H·T⁻¹ (entries from the trailing 3×3 of T⁻¹).
@@ -185,7 +187,6 @@ function doubleShiftStep(H: Float64Array, T: Float64Array, m: number, f: number,
     // Right rotation on columns k, k+1 zeroing T(k+1, k).
     const fill = T[(k + 1) * m + k];
     if (fill !== 0) {
-      const gg = v.subarray(5, 8);
       givens(T[(k + 1) * m + k + 1], fill, gg);
       T[(k + 1) * m + k + 1] = gg[2];
       T[(k + 1) * m + k] = 0;
@@ -197,7 +198,6 @@ function doubleShiftStep(H: Float64Array, T: Float64Array, m: number, f: number,
     z = k + 3 <= l ? H[(k + 3) * m + k] : 0;
   }
   // Final 2-vector: rotation on rows l−1, l, then columns l−1, l.
-  const gg = v.subarray(5, 8);
   givens(x, y, gg);
   H[(l - 1) * m + l - 2] = gg[2];
   H[l * m + l - 2] = 0;

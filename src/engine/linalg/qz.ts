@@ -13,7 +13,7 @@ import { refineRealEigenvalue, refineComplexEigenvalue } from './refine';
 
 const ULP = 2.220446049250313e-16;
 /** A-priori relative error above which a finite eigenvalue is polished (see finiteEigenvalues). */
-export const REFINE_ABOVE = 1e-12;
+export const REFINE_ABOVE = 1e-11;
 
 export interface GenEigResult {
   alphaRe: Float64Array;
@@ -120,7 +120,7 @@ function byMagnitude(p: { re: number; im: number }, q: { re: number; im: number 
  *  With refine (default) a finite λ is polished on the original pencil (see refine.ts) when the
  *  a-priori QZ error estimate ulp·(S + |λ|)/|λ| exceeds REFINE_ABOVE, S being the scale of the
  *  active block (max of ‖A‖/‖B‖ and its largest finite |λ|): i.e. when |λ| lies more than
- *  ~4 decades below the block's scale (stiff networks). The others are at that accuracy times
+ *  ~4.7 decades below the block's scale (stiff networks). The others are at that accuracy times
  *  their condition number; polishing every λ would cost one LU each. */
 export function finiteEigenvalues(A: Float64Array, B: Float64Array, n: number,
   opts: { refine?: boolean; balance?: boolean; scale?: boolean } = {}): FiniteEigenvalues {
