@@ -4,7 +4,7 @@
 // τ = R·C; ω₋₃dB ≈ 1/Στ. Per node: total capacitance touching it, τ_node = Z_kk(0)·C_node.
 
 import type { Element, MnaSystem } from '../types';
-import { dcBilinear, factorDc, type DcFactor } from './dc';
+import { dcBilinear, dcSolve, factorDc, type DcFactor } from './dc';
 import type { DcImpedance } from './impedance';
 
 export type OctcSys = Pick<MnaSystem, 'n' | 'nodeCount' | 'nodeNames' | 'G' | 'C' | 'elements'>;
@@ -38,12 +38,32 @@ export function openCircuitTimeConstants(sys: OctcSys, dc: DcFactor = factorDc(s
   let sum = 0;
   let unbounded = false;
   let singular = false;
+  // With G regular, R = X_aa + X_bb − X_ab − X_ba from the columns X = G⁻¹e_k of the cap nodes
+  // (one solve per node instead of one per capacitor).
+  const cols = new Map<number, Float64Array>();
+  const col = (k: number) => {
+    let x = cols.get(k);
+    if (!x) { const e = new Float64Array(sys.n); e[k] = 1; x = dcSolve(dc, e)!.x; cols.set(k, x); }
+    return x;
+  };
+  const seen = new Map<string, ReturnType<typeof dcBilinear>>();
   for (const el of sys.elements) {
     if (el.type !== 'capacitance' || el.c === 0 || el.a === el.b) continue;
-    d.fill(0);
-    if (el.a >= 0) d[el.a] += 1;
-    if (el.b >= 0) d[el.b] -= 1;
-    const r = dcBilinear(dc, d, d);
+    const key = `${Math.min(el.a, el.b)}:${Math.max(el.a, el.b)}`;
+    let r = seen.get(key);
+    if (!r && dc.status === 'regular') {
+      const { a, b } = el;
+      const xa = a >= 0 ? col(a) : null, xb = b >= 0 ? col(b) : null;
+      const v = (xa ? xa[a] - (b >= 0 ? xa[b] : 0) : 0) + (xb ? xb[b] - (a >= 0 ? xb[a] : 0) : 0);
+      r = Number.isFinite(v) ? { value: v, unbounded: false } : { value: null, unbounded: false, singular: true };
+    }
+    if (!r) {
+      d.fill(0);
+      if (el.a >= 0) d[el.a] += 1;
+      if (el.b >= 0) d[el.b] -= 1;
+      r = dcBilinear(dc, d, d);
+    }
+    seen.set(key, r);
     const ohms = r.value;
     if (r.unbounded) unbounded = true;
     else if (ohms === null) singular = true;
