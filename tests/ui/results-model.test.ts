@@ -10,7 +10,8 @@ import { compareResults, migrationsOf } from '../../src/panels/results/compareMo
 import { loopGroups, groupOf, PM_WARN_DEG } from '../../src/panels/results/loopRows';
 import { fmtRatio, fmtHz, fmtOhms, fmtNum, toDb, NONE } from '../../src/panels/results/format';
 import { impedanceInput, gainUnit } from '../../src/panels/results/plotInputs';
-import regulated from '../../src/examples/netlists/readout-cascode-regulated.json';
+import regulatedJson from '../../src/examples/netlists/readout-cascode-regulated.json';
+const regulated = regulatedJson as unknown as Netlist;
 
 // Series RLC driven by a source, output across C: H = 1/(s²LC + sRC + 1); ωn = 1/√(LC),
 // Q = (1/R)·√(L/C) (textbook second-order section).
@@ -86,7 +87,7 @@ describe('A/B comparison', () => {
 });
 
 describe('loop groups', () => {
-  const fb = analyzeFeedback(regulated as Netlist);
+  const fb = analyzeFeedback(regulated);
   it('group the cycles of the regulated cascode by their key source', () => {
     const groups = loopGroups(fb);
     const keys = groups.map((g) => g.key);
@@ -96,6 +97,20 @@ describe('loop groups', () => {
     expect(booster.cycles[0].members.length).toBeLessThanOrEqual(booster.cycles[booster.cycles.length - 1].members.length);
     expect(booster.holds.join(' ')).toMatch(/holds the current into out/);
     expect(groupOf(groups, booster.cycles[1].id)).toBe(booster);
+  });
+
+  it('a loop open at DC (T(0) at roundoff) shows T(0) = 0 and no positive-feedback warning', () => {
+    // With the booster off, M2's body-effect source alone closes no loop at DC: the open drain
+    // carries no incremental current (an ideal current source load), so T(0) is 0 (from memory).
+    const off = analyzeFeedback(regulated, { off: ['A1.A0'] });
+    const g = loopGroups(off).find((x) => x.key === 'M2.gmb')!;
+    expect(g).toBeDefined();
+    expect(g.dcLoopGain).toBe(0);
+    expect(g.warnings.filter((w) => /positive feedback/.test(w))).toEqual([]);
+    const booster = loopGroups(fb).find((x) => x.key === 'A1.A0')!;
+    expect(booster.dcLoopGain).toBe(0);
+    expect(booster.label).toMatch(/→/);
+    expect(booster.band!.fromHz).toBeGreaterThan(0);
   });
 
   it('flag a phase margin under 45° and a failed booster placement', () => {
@@ -135,8 +150,8 @@ describe('number text and plot inputs', () => {
     const z = r.impedanceSweep!.values[k][0]!;
     expect(d.ohms[0]).toBeCloseTo(Math.hypot(z.re, z.im), 9);
     expect(gainUnit(rlc('10'), r).unit).toBe('V/V');
-    const rr = analyze(regulated as Netlist);
-    expect(gainUnit(regulated as Netlist, rr).unit).toBe('Ω'); // current in, voltage out
+    const rr = analyze(regulated);
+    expect(gainUnit(regulated, rr).unit).toBe('Ω'); // current in, voltage out
   });
 });
 

@@ -118,7 +118,7 @@ describe('results panels on the live store', () => {
     expect(si(cells[1])).toBeCloseTo(3.98e6, -4);
     expect(cells[2]).toBe('÷ 4.00');
     const node = screen.getAllByTestId('cmp-node').find((r) => r.getAttribute('data-node') === 'out')!;
-    expect(node.textContent).toMatch(/10\.0 ns → 40\.0 ns/); // τ = RC
+    expect(node.textContent).toMatch(/τ 10\.0 ns40\.0 ns× 4\.00/); // τ = RC
     // DC gain of an RC low-pass is 1 in both (common practice): 0 dB change.
     expect(screen.getByTestId('cmp-Gain-a').textContent).toBe(screen.getByTestId('cmp-Gain-b').textContent);
     fireEvent.click(screen.getByRole('button', { name: 'End compare' }));

@@ -4,7 +4,7 @@
 import type { AnalysisResult } from '../../engine/index';
 import type { PinnedResult } from '../../live/types';
 import { compareResults, type FigureChange } from './compareModel';
-import { fmtDb, fmtGain, fmtHz, fmtOhms, fmtQ, fmtRatio, fmtSeconds, NONE, toDb } from './format';
+import { fmtDb, fmtGain, fmtHz, fmtNum, fmtOhms, fmtQ, fmtRatio, fmtSeconds, NONE, toDb } from './format';
 
 export interface ComparePanelProps {
   pinned: PinnedResult | null;
@@ -13,6 +13,8 @@ export interface ComparePanelProps {
   offNow: string[];
   offPinned: string[];
   busy: boolean;
+  /** Unit of the transfer (V/V, Ω, …); dimensionless gains also get a dB change. */
+  gainUnit?: { unit: string; dimensionless: boolean };
   onPin: () => void;
   onClear: () => void;
 }
@@ -40,7 +42,7 @@ function Figure({ name, c, fmt, delta }: { name: string; c: FigureChange; fmt: (
 const poleText = (p: { hz: number; q: number | null; kind: string; rhp: boolean } | null) =>
   p ? `${fmtHz(p.hz)}${p.kind === 'complex' ? ` Q ${fmtQ(p.q)}` : ''}${p.rhp ? ' RHP' : ''}` : NONE;
 
-export function ComparePanel({ pinned, current, offNow, offPinned, busy, onPin, onClear }: ComparePanelProps) {
+export function ComparePanel({ pinned, current, offNow, offPinned, busy, gainUnit = { unit: 'V/V', dimensionless: true }, onPin, onClear }: ComparePanelProps) {
   if (!pinned) {
     return (
       <div className="rp-compare" data-testid="compare">
@@ -52,7 +54,7 @@ export function ComparePanel({ pinned, current, offNow, offPinned, busy, onPin, 
   const a = pinned.result;
   const same = current !== null && pinned.result === current;
   const c = current && current.ok && a.ok ? compareResults(a, current) : null;
-  const dcUnit = '';
+  const nodes = c ? c.nodes.filter((n) => !n.node.includes('#')) : [];
   return (
     <div className="rp-compare" data-testid="compare">
       <div className="rp-row">
@@ -67,33 +69,34 @@ export function ComparePanel({ pinned, current, offNow, offPinned, busy, onPin, 
         <>
           {same ? <p className="rp-note">B is still the pinned result: change a value or switch a loop.</p> : null}
           <table className="rp-table" aria-label="Gain and bandwidth A and B">
-            <thead><tr><th /><th scope="col">A</th><th scope="col">B</th><th scope="col">change</th></tr></thead>
+            <thead><tr><th /><th scope="col" className="rp-num">A</th><th scope="col" className="rp-num">B</th><th scope="col" className="rp-num">change</th></tr></thead>
             <tbody>
-              <Figure name="Gain" c={c.dcGain} fmt={(v) => fmtGain(v, dcUnit)} delta={gainDb(c.dcGain)} />
+              <Figure name="Gain" c={c.dcGain} fmt={(v) => (gainUnit.dimensionless ? fmtNum(v) : fmtGain(v, gainUnit.unit))} delta={gainUnit.dimensionless ? gainDb(c.dcGain) : fmtRatio(c.dcGain.ratio)} />
               <Figure name="Bandwidth" c={c.bandwidthHz} fmt={fmtHz} delta={moveText(c.bandwidthHz)} />
-              <Figure name="Unity gain" c={c.unityGainHz} fmt={fmtHz} delta={moveText(c.unityGainHz)} />
+              {gainUnit.dimensionless ? <Figure name="Unity gain" c={c.unityGainHz} fmt={fmtHz} delta={moveText(c.unityGainHz)} /> : null}
             </tbody>
           </table>
-          <h4 className="rp-sub">Nodes{c.frequencyHz.a ? ` (|Z| at ${fmtHz(c.frequencyHz.a)})` : ' (|Z| at DC)'}</h4>
+          <h4 className="rp-sub">Node |Z|{c.frequencyHz.a ? ` at ${fmtHz(c.frequencyHz.a)}` : ' at DC'} and τ</h4>
           <table className="rp-table" aria-label="Node impedance and time constant A and B">
-            <thead><tr><th scope="col">Node</th><th scope="col">|Z| A</th><th scope="col">|Z| B</th><th scope="col">τ A → B</th></tr></thead>
-            <tbody>
-              {c.nodes.filter((n) => !n.node.includes('#')).map((n) => {
-                const z = c.frequencyHz.a ? n.zOhms : n.dcOhms;
-                return (
-                  <tr key={n.node} data-testid="cmp-node" data-node={n.node}>
-                    <th scope="row">{n.node}</th>
-                    <td className="rp-num">{fmtOhms(z.a)}</td>
-                    <td className="rp-num" title={fmtRatio(z.ratio)}>{fmtOhms(z.b)} <span className="rp-delta">{fmtRatio(z.ratio)}</span></td>
-                    <td className="rp-num">{fmtSeconds(n.tau.a)} → {fmtSeconds(n.tau.b)}</td>
+            <thead><tr><th scope="col">Node</th><th scope="col" className="rp-num">A</th><th scope="col" className="rp-num">B</th><th scope="col" className="rp-num">change</th></tr></thead>
+            {nodes.map((n) => {
+              const z = c.frequencyHz.a ? n.zOhms : n.dcOhms;
+              return (
+                <tbody key={n.node} className="rp-pair" data-testid="cmp-node" data-node={n.node}>
+                  <tr>
+                    <th scope="row" rowSpan={2}>{n.node}</th>
+                    <td className="rp-num">{fmtOhms(z.a)}</td><td className="rp-num">{fmtOhms(z.b)}</td><td className="rp-num rp-delta">{fmtRatio(z.ratio)}</td>
                   </tr>
-                );
-              })}
-            </tbody>
+                  <tr className="rp-sec">
+                    <td className="rp-num">τ {fmtSeconds(n.tau.a)}</td><td className="rp-num">{fmtSeconds(n.tau.b)}</td><td className="rp-num rp-delta">{fmtRatio(n.tau.ratio)}</td>
+                  </tr>
+                </tbody>
+              );
+            })}
           </table>
           <h4 className="rp-sub">Poles (paired by nearest path)</h4>
           <table className="rp-table" aria-label="Poles A and B">
-            <thead><tr><th scope="col">A</th><th scope="col">B</th><th scope="col">moved</th></tr></thead>
+            <thead><tr><th scope="col" className="rp-num">A</th><th scope="col" className="rp-num">B</th><th scope="col" className="rp-num">moved</th></tr></thead>
             <tbody>
               {c.poles.map((p, i) => (
                 <tr key={i} data-testid="cmp-pole">

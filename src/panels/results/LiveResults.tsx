@@ -53,9 +53,9 @@ export function LiveResults({ state, actions, initialTab = 'poles' }: LiveResult
     body = (
       <>
         <dl className="rp-summary" data-testid="results-summary">
-          <div><dt>{transferLabel(result)} at DC</dt><dd data-testid="dc-gain">{gainText}</dd></div>
-          <div><dt>−3 dB</dt><dd>{fmtHz(result.bandwidthHz)}</dd></div>
-          <div><dt>unity gain</dt><dd>{fmtHz(result.unityGainHz)}</dd></div>
+          <dt title="the chosen input and output">{transferLabel(result)}</dt><dd data-testid="dc-gain">{gainText}</dd>
+          <dt>−3 dB bandwidth</dt><dd>{fmtHz(result.bandwidthHz)}</dd>
+          {gu.dimensionless ? <><dt>unity-gain frequency</dt><dd>{fmtHz(result.unityGainHz)}</dd></> : null}
         </dl>
         <div className="rp-tabs" role="tablist" aria-label="Results">
           {TABS.map(([k, text]) => (
@@ -82,7 +82,7 @@ export function LiveResults({ state, actions, initialTab = 'poles' }: LiveResult
               pending={state.feedbackPending} onSelect={actions.selectLoop} onSetEnabled={actions.setLoopEnabled} notes={feedback?.notes} />
           )}
           {tab === 'compare' && (
-            <ComparePanel pinned={state.pinnedA} current={result} busy={busy} onPin={actions.pinA} onClear={actions.clearPin}
+            <ComparePanel pinned={state.pinnedA} current={result} busy={busy} gainUnit={gu} onPin={actions.pinA} onClear={actions.clearPin}
               offNow={labelsOf(state, settings.offLoopIds)} offPinned={labelsOf(state, state.pinnedA?.settings.offLoopIds ?? [])} />
           )}
           {tab === 'plots' && (

@@ -76,7 +76,12 @@ export function LoopsList({ groups, known, offLoopIds, selectedLoopId, pending, 
             </dl>
             {g.marginNote ? <p className="rp-note">{g.marginNote}</p> : null}
             {g.warnings.map((w, i) => <p key={i} className="rp-warn" role="note">⚠ {w}</p>)}
-            {g.booster && g.booster.ok ? <p className="rp-note">Booster placement: {g.booster.verdict}</p> : null}
+            {g.dcLoopGain === 0 && g.band ? <p className="rp-note">No loop gain at DC; active from {fmtHz(g.band.fromHz)}{g.band.toHz !== null ? ` to ${fmtHz(g.band.toHz)}` : ' upward'}.</p> : null}
+            {g.booster && g.booster.ok ? (
+              <p className="rp-note" title={g.booster.verdict}>
+                Booster placement fits: f<sub>u</sub> {fmtHz(g.booster.boosterUnityGainHz)} lies between the closed-loop bandwidth {fmtHz(g.booster.mainBandwidthHz)} and the non-dominant pole {fmtHz(g.booster.mainNonDominantHz)}.
+              </p>
+            ) : null}
             {g.cycles.length > 1 ? (
               <ul className="rp-cycles" aria-label={`Paths through ${g.key}`}>
                 {g.cycles.map((c) => (

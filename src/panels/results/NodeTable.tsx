@@ -44,8 +44,8 @@ export function NodeTable({ result, hoveredNet, selectedNet, onHoverNet, onSelec
         <thead>
           <tr>
             <th scope="col">Node</th>
-            <th scope="col" title="impedance magnitude to ground">|Z| {f ? `@ ${fmtHz(f)}` : '@ DC'}</th>
-            <th scope="col">C</th><th scope="col">τ</th><th scope="col" title="1/(2πτ)">f<sub>p</sub></th>
+            <th scope="col" className="rp-num" title="impedance magnitude to ground">|Z| {f ? `@ ${fmtHz(f)}` : '@ DC'}</th>
+            <th scope="col" className="rp-num">C</th><th scope="col" className="rp-num">τ</th><th scope="col" className="rp-num" title="1/(2πτ)">f<sub>p</sub></th>
           </tr>
         </thead>
         <tbody>

@@ -29,7 +29,7 @@ export function PolesList({ result, hoveredPoleIndex, hoveredNet, onHoverPole, o
     <div className="rp-poles">
       <table className="rp-table" aria-label="Poles">
         <thead>
-          <tr><th scope="col">#</th><th scope="col">Frequency</th><th scope="col">Q</th><th scope="col">Carried by</th></tr>
+          <tr><th scope="col">#</th><th scope="col" className="rp-num">Frequency</th><th scope="col" className="rp-num">Q</th><th scope="col">Carried by</th></tr>
         </thead>
         <tbody>
           {rows.map((r, k) => {

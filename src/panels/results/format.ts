@@ -10,8 +10,8 @@ export const fmtHz = (v: number | null | undefined) => (ok(v) ? formatSi(v, 'Hz'
 export const fmtOhms = (v: number | null | undefined) => (ok(v) ? formatSi(v, 'Ω') : NONE);
 export const fmtSeconds = (v: number | null | undefined) => (ok(v) ? formatSi(v, 's') : NONE);
 export const fmtFarads = (v: number | null | undefined) => (ok(v) ? formatSi(v, 'F') : NONE);
-export const fmtDeg = (v: number | null | undefined) => (ok(v) ? `${v.toFixed(1)}°` : NONE);
-export const fmtDb = (v: number | null | undefined) => (ok(v) ? `${v.toFixed(1)} dB` : NONE);
+export const fmtDeg = (v: number | null | undefined) => (ok(v) ? `${(Math.abs(v) < 0.05 ? 0 : v).toFixed(1)}°` : NONE);
+export const fmtDb = (v: number | null | undefined) => (ok(v) ? `${(Math.abs(v) < 0.05 ? 0 : v).toFixed(1)} dB` : NONE);
 export const fmtQ = (v: number | null | undefined) => (ok(v) ? v.toPrecision(3) : NONE);
 /** A plain gain (V/V, A/A or Ω for a transimpedance): SI prefix, no unit. */
 export const fmtGain = (v: number | null | undefined, unit = '') => (ok(v) ? formatSi(v, unit) : NONE);

@@ -31,8 +31,10 @@ export interface LoopGroup {
   holds: string[];
   /** Frequency at which "holds" was read (0 = DC). */
   holdsAtHz: number;
-  /** Return ratio T at DC (signed real part when T is real; magnitude otherwise). */
+  /** Return ratio T at DC (signed real part when T is real; magnitude otherwise; 0 below roundoff). */
   dcLoopGain: number | null;
+  /** Band where the loop is active (|cycle gain| above the threshold), from the shortest cycle. */
+  band: { fromHz: number; toHz: number | null } | null;
   unityGainHz: number | null;
   phaseMarginDeg: number | null;
   gainMarginDb: number | null;
@@ -41,11 +43,16 @@ export interface LoopGroup {
   booster: BoosterCheck | null;
 }
 
+/** |T| below this is roundoff of a loop that is open at DC (e.g. closed only through a capacitor). */
+export const T_ROUNDOFF = 1e-9;
+
 function dcGainOf(r: LoopReport): number | null {
   const v = r.margins?.dc ?? r.loop.returnRatioDc?.value ?? null;
   if (!v) return null;
+  const m = magOf(v);
+  if (m !== null && m < T_ROUNDOFF) return 0;
   if (Math.abs(v.im) <= 1e-9 * Math.abs(v.re)) return v.re;
-  return magOf(v);
+  return m;
 }
 
 export function loopGroups(fb: FeedbackResult | null | undefined): LoopGroup[] {
@@ -63,15 +70,18 @@ export function loopGroups(fb: FeedbackResult | null | undefined): LoopGroup[] {
     const holds = [r.regulation.holdsVoltage?.text, r.regulation.holdsCurrent?.text].filter((t): t is string => !!t);
     groups.set(r.loop.key, {
       key: r.loop.key, label: r.loop.label, cycles: [cyc], holds, holdsAtHz: r.regulation.atHz,
-      dcLoopGain: dcGainOf(r),
+      dcLoopGain: dcGainOf(r), band: r.loop.band,
       unityGainHz: m?.unityGainHz ?? null, phaseMarginDeg: m?.phaseMarginDeg ?? null, gainMarginDb: m?.gainMarginDb ?? null,
-      marginNote: m && m.status !== 'ok' ? m.message ?? m.status : null,
+      marginNote: m && m.status !== 'ok' && m.status !== 'positive-feedback' ? m.message ?? m.status : null,
       warnings: [], booster: null,
     });
   }
   for (const g of groups.values()) {
     g.cycles.sort((a, b) => a.members.length - b.members.length);
-    g.label = g.cycles[0].label;
+    // the shortest cycle through more than one part names the loop best ("A1 → M2")
+    g.label = (g.cycles.find((c) => c.label.includes('→')) ?? g.cycles[0]).label;
+    const shortest = fb.loops.find((r) => r.loop.id === g.cycles[0].id);
+    if (shortest) g.band = shortest.loop.band;
     g.booster = fb.boosters.find((b) => g.cycles.some((c) => c.id === b.loopId)) ?? null;
     g.warnings = loopWarnings(g, fb);
   }
@@ -83,7 +93,8 @@ function loopWarnings(g: LoopGroup, fb: FeedbackResult): string[] {
   if (g.phaseMarginDeg !== null && g.phaseMarginDeg < PM_WARN_DEG) w.push(`phase margin ${g.phaseMarginDeg.toFixed(1)}° is under ${PM_WARN_DEG}°`);
   if (g.gainMarginDb !== null && g.gainMarginDb < GM_WARN_DB) w.push(`gain margin ${g.gainMarginDb.toFixed(1)} dB is under ${GM_WARN_DB} dB`);
   const pos = fb.loops.find((r) => r.loop.key === g.key && r.margins?.status === 'positive-feedback');
-  if (pos) w.push(pos.margins.message ?? 'positive feedback at DC');
+  // a T(0) at roundoff level is no feedback at DC at all, whatever its sign
+  if (pos && g.dcLoopGain !== 0) w.push(pos.margins.message ?? 'positive feedback at DC');
   if (g.booster && g.booster.ok === false) w.push(g.booster.verdict);
   return w;
 }
