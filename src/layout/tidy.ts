@@ -82,5 +82,8 @@ export async function tidyEditor(editor: Editor, elk: ElkRunner, opts: { pinned?
   if (r.status !== 'ok') return r;
   if (editor.document !== start) return { ...r, status: 'failed', doc: editor.document, message: 'The drawing changed while the layout ran; tidy again.' };
   editor.history.replace('Tidy layout', r.doc);
+  // Rail symbols the tidy replaced may have been selected: keep only what still exists.
+  const kept = [...editor.selection].filter((id) => id in r.doc.parts || id in r.doc.wires);
+  if (kept.length !== editor.selection.size) editor.select(kept);
   return r;
 }

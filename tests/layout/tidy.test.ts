@@ -93,9 +93,11 @@ describe('tidy layout', () => {
   it('tidies only the selection when parts are selected', async () => {
     const doc = csStage();
     const ed = createEditor(doc);
-    ed.select(['part:c1', 'part:out1']);
+    ed.select(['part:c1', 'part:out1', 'part:gnd2']);
     const r = await tidyEditor(ed, elk);
     expect(r.status).toBe('ok');
+    // GND2 was in the selection and is replaced by a fresh rail symbol: the selection drops it.
+    expect([...ed.selection].every((id) => id in ed.document.parts || id in ed.document.wires)).toBe(true);
     for (const id of ['part:in1', 'part:m1', 'part:r1'] as const) {
       expect({ x: ed.document.parts[id].x, y: ed.document.parts[id].y }).toEqual({ x: doc.parts[id].x, y: doc.parts[id].y });
     }
