@@ -39,8 +39,15 @@ function Figure({ name, c, fmt, delta }: { name: string; c: FigureChange; fmt: (
   );
 }
 
-const poleText = (p: { hz: number; q: number | null; kind: string; rhp: boolean } | null) =>
-  p ? `${fmtHz(p.hz)}${p.kind === 'complex' ? ` Q ${fmtQ(p.q)}` : ''}${p.rhp ? ' RHP' : ''}` : NONE;
+function poleText(p: { hz: number; q: number | null; kind: string; rhp: boolean } | null) {
+  if (!p) return NONE;
+  return (
+    <>
+      {fmtHz(p.hz)}{p.rhp ? <span className="rp-flag"> RHP</span> : null}
+      {p.kind === 'complex' ? <span className="rp-q">Q {fmtQ(p.q)}</span> : null}
+    </>
+  );
+}
 
 export function ComparePanel({ pinned, current, offNow, offPinned, busy, gainUnit = { unit: 'V/V', dimensionless: true }, onPin, onClear }: ComparePanelProps) {
   if (!pinned) {

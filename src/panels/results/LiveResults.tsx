@@ -37,10 +37,10 @@ export function LiveResults({ state, actions, initialTab = 'poles' }: LiveResult
 
   let body: React.ReactNode;
   if (state.failure) {
-    body = <p className="rp-error" role="alert">The analysis could not run: {state.failure}</p>;
+    body = <p className="rp-error" aria-live="assertive">The analysis could not run: {state.failure}</p>;
   } else if (!result || !result.ok) {
     body = errors.length ? (
-      <div role="alert" className="rp-error" data-testid="results-errors">
+      <div aria-live="assertive" className="rp-error" data-testid="results-errors">
         <p>No results until the drawing is fixed:</p>
         <ul>{errors.slice(0, 6).map((i, k) => <li key={k}>{i.message}</li>)}</ul>
         {errors.length > 6 ? <p>… and {errors.length - 6} more (see Drawing checks).</p> : null}
@@ -96,9 +96,8 @@ export function LiveResults({ state, actions, initialTab = 'poles' }: LiveResult
   }
   return (
     <section className="results rp" aria-label="Results" aria-busy={busy}>
-      <h2>Results {busy ? <span className="rp-busy" role="status" aria-label="analysing">analysing…</span> : null}</h2>
+      <h2>Results {busy ? <span className="rp-busy" aria-live="polite" aria-label="analysing">analysing…</span> : null}</h2>
       {body}
-      <p className="rp-caution">Linear small-signal estimates about the entered bias point.</p>
     </section>
   );
 }

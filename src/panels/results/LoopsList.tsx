@@ -58,11 +58,11 @@ export function LoopsList({ groups, known, offLoopIds, selectedLoopId, pending, 
           <section key={g.key} className={`rp-loop${selected ? ' picked' : ''}${g.warnings.length ? ' warn' : ''}`} data-testid="loop-item" data-key={g.key}>
             <header className="rp-loop-head">
               <button type="button" className="rp-loop-name" aria-pressed={selected}
-                onClick={() => onSelect(selected ? null : g.cycles[0].id)} title="Draw this loop on the schematic">
+                onClick={() => onSelect(selected ? null : g.primaryId)} title="Draw this loop on the schematic">
                 {g.label}
               </button>
               <span className="rp-key" title="where the loop is broken (its key source)">at {g.key}</span>
-              <Switch on label={`Loop ${g.label}`} onChange={(on) => onSetEnabled(g.cycles[0].id, on)} />
+              <Switch on label={`Loop ${g.label}`} onChange={(on) => onSetEnabled(g.primaryId, on)} />
             </header>
             <p className="rp-holds" data-testid="loop-holds">
               {g.holds.length ? g.holds.join('; ') : 'changes no node impedance by more than ×/÷ 1.5'}

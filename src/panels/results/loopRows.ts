@@ -24,8 +24,11 @@ export interface LoopCycle {
 export interface LoopGroup {
   /** Key source id: what the switch turns off. */
   key: string;
-  /** Label of the shortest cycle. */
+  /** Label of the primary cycle. */
   label: string;
+  /** The cycle that stands for the loop (selected and switched from the loop's header): the
+   *  shortest one through more than one part, else the shortest. */
+  primaryId: string;
   cycles: LoopCycle[];
   /** "holds V(x) — impedance ÷ 48" and/or "holds the current into out — impedance × 47". */
   holds: string[];
@@ -69,7 +72,7 @@ export function loopGroups(fb: FeedbackResult | null | undefined): LoopGroup[] {
     const m = r.margins;
     const holds = [r.regulation.holdsVoltage?.text, r.regulation.holdsCurrent?.text].filter((t): t is string => !!t);
     groups.set(r.loop.key, {
-      key: r.loop.key, label: r.loop.label, cycles: [cyc], holds, holdsAtHz: r.regulation.atHz,
+      key: r.loop.key, label: r.loop.label, primaryId: r.loop.id, cycles: [cyc], holds, holdsAtHz: r.regulation.atHz,
       dcLoopGain: dcGainOf(r), band: r.loop.band,
       unityGainHz: m?.unityGainHz ?? null, phaseMarginDeg: m?.phaseMarginDeg ?? null, gainMarginDb: m?.gainMarginDb ?? null,
       marginNote: m && m.status !== 'ok' && m.status !== 'positive-feedback' ? m.message ?? m.status : null,
@@ -79,7 +82,9 @@ export function loopGroups(fb: FeedbackResult | null | undefined): LoopGroup[] {
   for (const g of groups.values()) {
     g.cycles.sort((a, b) => a.members.length - b.members.length);
     // the shortest cycle through more than one part names the loop best ("A1 → M2")
-    g.label = (g.cycles.find((c) => c.label.includes('→')) ?? g.cycles[0]).label;
+    const primary = g.cycles.find((c) => c.label.includes('→')) ?? g.cycles[0];
+    g.label = primary.label;
+    g.primaryId = primary.id;
     const shortest = fb.loops.find((r) => r.loop.id === g.cycles[0].id);
     if (shortest) g.band = shortest.loop.band;
     g.booster = fb.boosters.find((b) => g.cycles.some((c) => c.id === b.loopId)) ?? null;
