@@ -143,4 +143,40 @@ describe('results panels on the live store', () => {
     expect(alert.textContent).toMatch(/no path to ground/);
     expect(screen.queryAllByTestId('pole-row')).toHaveLength(0);
   });
+
+  it('hovering a pole row tells the store; a hovered net lights the poles it carries', async () => {
+    const store = mount();
+    act(() => store.actions.submit(rcDrawing('1p')));
+    await settled(store);
+    const row = screen.getAllByTestId('pole-row')[0];
+    fireEvent.mouseEnter(row);
+    expect(store.getState().settings.hoveredPoleIndex).toBe(Number(row.getAttribute('data-pole-index')));
+    fireEvent.mouseLeave(row);
+    expect(store.getState().settings.hoveredPoleIndex).toBeNull();
+    // The RC pole lives at node out alone (the other node is held by the source): out lights it.
+    act(() => store.actions.hoverNet('out'));
+    expect(screen.getAllByTestId('pole-row')[0].className).toMatch(/\blit\b/);
+    act(() => store.actions.hoverNet('nowhere'));
+    expect(screen.getAllByTestId('pole-row')[0].className).not.toMatch(/\blit\b/);
+  });
+
+  it('the selected loop is plotted: T(jω) with its phase margin, and the s-plane with its locus', async () => {
+    const doc = EXAMPLE_DRAWINGS.find((e) => e.id === 'readout-cascode-regulated')!.load();
+    const store = mount();
+    act(() => store.actions.submit(doc));
+    await settled(store);
+    tab(/Loops/);
+    const item = screen.getAllByTestId('loop-item').find((e) => e.getAttribute('data-key') === 'A1.A0')!;
+    fireEvent.click(within(item).getByRole('button', { name: /A1 → M2/ }));
+    expect(store.getState().settings.selectedLoopId).toMatch(/^A1\.A0>/);
+    const pm = within(item).getByText('PM').nextElementSibling!.textContent!;
+    tab(/Plots/);
+    fireEvent.click(screen.getByRole('tab', { name: 'Loop T' }));
+    const plot = await screen.findByLabelText(/Loop gain T: A1 → M2/, {}, { timeout: 20000 });
+    // The plot marks the same phase margin as the list (one source: the engine's margins).
+    expect(plot.textContent).toContain(`PM ${pm}`);
+    fireEvent.click(screen.getByRole('tab', { name: 's-plane' }));
+    const sp = await screen.findByLabelText(/s-plane/, { selector: 'svg' }, { timeout: 20000 });
+    await waitFor(() => expect(sp.textContent).toMatch(/Root locus/), { timeout: 20000 });
+  });
 });

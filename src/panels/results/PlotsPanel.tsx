@@ -89,9 +89,10 @@ export function PlotsPanel({ result, feedback, netlist, loop, offSources, node, 
       <div className="rp-plot">{view(width, Math.round(width * 0.78))}</div>
       <button type="button" className="rp-btn" onClick={() => setLarge(true)}>Larger view</button>
       {large ? (
-        <div className="rp-modal" role="dialog" aria-label="Plot, larger view" onClick={() => setLarge(false)}>
+        <div className="rp-modal" role="dialog" aria-label="Plot, larger view" onClick={() => setLarge(false)}
+          onKeyDown={(e) => { if (e.key === 'Escape') { e.stopPropagation(); setLarge(false); } }}>
           <div className="rp-modal-box" onClick={(e) => e.stopPropagation()}>
-            <button type="button" className="rp-close" aria-label="Close" onClick={() => setLarge(false)}>×</button>
+            <button type="button" className="rp-close" aria-label="Close" autoFocus onClick={() => setLarge(false)}>×</button>
             {view(760, 500)}
           </div>
         </div>
