@@ -1,4 +1,4 @@
-// Command line: npm run analyze -- <file.json> [--json] [--in SRC --out NODE]
+// Command line: npm run analyze -- <file.json> [--json] [--in SRC --out NODE] [--svg out.svg]
 // Reads an engine netlist (or a saved drawing), runs every small-signal analysis and prints poles,
 // zeros, gains, bandwidth and the node table. Exit code 1 on bad input, with named messages.
 
@@ -6,17 +6,17 @@ import { readFileSync } from 'node:fs';
 import { analyze, formatSi, SMALL_SIGNAL_CAUTION, type AnalysisResult, type AnalyzeOptions, type Netlist } from '../engine/index';
 import { feedbackReport, takeFeedbackArgs, FEEDBACK_USAGE } from '../engine/feedback/cli';
 
-interface CliArgs { file?: string; json: boolean; input?: string; output?: string; problems: string[] }
+interface CliArgs { file?: string; json: boolean; input?: string; output?: string; svg?: string; problems: string[] }
 
 function parseArgs(argv: string[]): CliArgs {
   const a: CliArgs = { json: false, problems: [] };
   for (let i = 0; i < argv.length; i++) {
     const t = argv[i];
     if (t === '--json') a.json = true;
-    else if (t === '--in' || t === '--out') {
+    else if (t === '--in' || t === '--out' || t === '--svg') {
       const v = argv[i + 1];
       if (v === undefined || v.startsWith('--')) a.problems.push(`${t} needs a value`);
-      else { if (t === '--in') a.input = v; else a.output = v; i++; }
+      else { if (t === '--in') a.input = v; else if (t === '--svg') a.svg = v; else a.output = v; i++; }
     } else if (t.startsWith('--')) a.problems.push(`unknown option ${t}`);
     else if (a.file === undefined) a.file = t;
     else a.problems.push(`unexpected argument "${t}"`);
@@ -109,7 +109,7 @@ export async function main(argv: string[], out: (s: string) => void = console.lo
   args.problems.push(...(fb.args?.problems ?? []));
   if (args.problems.length) {
     for (const p of args.problems) err(`analyze: ${p}`);
-    err(`usage: npm run analyze -- <file.json> [--json] [--in SRC --out NODE] ${FEEDBACK_USAGE}`);
+    err(`usage: npm run analyze -- <file.json> [--json] [--in SRC --out NODE] [--svg out.svg] ${FEEDBACK_USAGE}`);
     return 1;
   }
   const file = args.file!;
@@ -139,6 +139,12 @@ export async function main(argv: string[], out: (s: string) => void = console.lo
   if (errors.length) {
     for (const e of errors) err(`${file}: error: ${e.message}`);
     return 1;
+  }
+  if (args.svg) {
+    const { writeSvgFile } = await import('../export/cliExport');
+    const problems = await writeSvgFile(json, args.svg);
+    for (const p of problems) err(`${file}: ${p}`);
+    if (problems.length) return 1;
   }
   return 0;
 }
