@@ -179,4 +179,19 @@ describe('results panels on the live store', () => {
     const sp = await screen.findByLabelText(/s-plane/, { selector: 'svg' }, { timeout: 20000 });
     await waitFor(() => expect(sp.textContent).toMatch(/Root locus/), { timeout: 20000 });
   });
+
+  it('the impedance plot follows the node chosen in the plot or the node table', async () => {
+    const store = mount();
+    act(() => store.actions.submit(rcDrawing('1p')));
+    await settled(store);
+    tab(/Plots/);
+    fireEvent.click(screen.getByRole('tab', { name: '|Z(f)|' }));
+    // default: the slowest node (out, the only one with a capacitor)
+    expect(screen.getByLabelText(/Node impedance \|Z\|: out/, { selector: 'svg' })).toBeTruthy();
+    const pick = screen.getByRole('combobox') as HTMLSelectElement;
+    const other = [...pick.options].map((o) => o.value).find((v) => v !== 'out')!;
+    fireEvent.change(pick, { target: { value: other } });
+    expect(store.getState().settings.selectedNet).toBe(other);
+    expect(screen.getByLabelText(new RegExp(`Node impedance \\|Z\\|: ${other}`), { selector: 'svg' })).toBeTruthy();
+  });
 });

@@ -24,6 +24,8 @@ export interface PlotsPanelProps {
   offSources: string[];
   /** Node chosen in the node table (else the slowest node is shown). */
   node: string | null;
+  /** Choose the node of the impedance plot (the same choice as in the node table). */
+  onSelectNet?: (net: string | null) => void;
   pinned: AnalysisResult | null;
   feedbackPending: boolean;
   width?: number;
@@ -34,7 +36,7 @@ function Missing({ text }: { text: string }) {
   return <p className="rp-empty" data-testid="plot-missing">{text}</p>;
 }
 
-export function PlotsPanel({ result, feedback, netlist, loop, offSources, node, pinned, feedbackPending, width = 276, initial = 'bode' }: PlotsPanelProps) {
+export function PlotsPanel({ result, feedback, netlist, loop, offSources, node, onSelectNet, pinned, feedbackPending, width = 276, initial = 'bode' }: PlotsPanelProps) {
   const [kind, setKind] = useState<PlotKind>(initial);
   const [large, setLarge] = useState(false);
   const range = result.conditions.sweep;
@@ -86,7 +88,14 @@ export function PlotsPanel({ result, feedback, netlist, loop, offSources, node, 
           <button key={k} type="button" role="tab" aria-selected={k === kind} onClick={() => setKind(k)}>{text}</button>
         ))}
       </div>
-      <div className="rp-plot">{view(width, Math.round(width * 0.78))}</div>
+      {kind === 'impedance' && result.impedanceSweep ? (
+        <label className="rp-pick">Node{' '}
+          <select value={impedanceNode(result, node) ?? ''} onChange={(e) => onSelectNet?.(e.target.value || null)}>
+            {result.nodes.filter((n) => !n.internal).map((n) => <option key={n.name} value={n.name}>{n.name}{n.slowest ? ' (slowest)' : ''}</option>)}
+          </select>
+        </label>
+      ) : null}
+      <div className="rp-plot">{view(width, Math.round(width * 0.8))}</div>
       <button type="button" className="rp-btn" onClick={() => setLarge(true)}>Larger view</button>
       {large ? (
         <div className="rp-modal" role="dialog" aria-label="Plot, larger view" onClick={() => setLarge(false)}
