@@ -18,6 +18,12 @@ import { StatusLine } from './panels/StatusLine';
 import { IssueList } from './panels/IssueList';
 import { ResultsPanel } from './panels/ResultsPanel';
 import { useBrowserHost, type Banner } from './panels/browserHost';
+import type { LiveStore } from './live/types';
+import { AnalysisProvider } from './live/useAnalysis';
+import { useEditorAnalysis } from './live/useEditorAnalysis';
+import { AnalysisWireLayer } from './canvas/AnalysisWireLayer';
+import { AnalysisOverlay } from './canvas/AnalysisOverlay';
+import { AnalysisHud } from './canvas/AnalysisHud';
 
 export interface AppProps {
   editor: Editor;
@@ -25,6 +31,8 @@ export interface AppProps {
   examples?: (ExampleEntry & { load: () => DrawingDocument })[];
   /** Browser storage for autosave and the cross-tab clipboard; null turns both off (tests). */
   storage?: Storage | null;
+  /** Live analysis store (src/live); by default the app makes its own. */
+  analysisStore?: LiveStore;
 }
 
 /** Re-render on every editor change. */
@@ -40,8 +48,9 @@ function isTypingTarget(t: EventTarget | null): boolean {
   return el.tagName === 'INPUT' || el.tagName === 'TEXTAREA' || el.tagName === 'SELECT' || el.isContentEditable;
 }
 
-export function App({ editor, examples = [], storage = typeof localStorage === 'undefined' ? null : localStorage }: AppProps) {
+export function App({ editor, examples = [], storage = typeof localStorage === 'undefined' ? null : localStorage, analysisStore }: AppProps) {
   useEditorVersion(editor);
+  const live = useEditorAnalysis(editor, analysisStore);
   const { state, document: doc, selection, camera, history } = editor;
   const [drafts, setDrafts] = useState<Drafts>({});
   const [showIssues, setShowIssues] = useState(true);
@@ -86,6 +95,7 @@ export function App({ editor, examples = [], storage = typeof localStorage === '
   const title = doc.title?.trim() || 'Untitled drawing';
 
   return (
+    <AnalysisProvider store={live.store}>
     <div className="app">
       <TopBar
         title={title} dirty={savedDoc !== doc} tool={state.tool}
@@ -124,6 +134,8 @@ export function App({ editor, examples = [], storage = typeof localStorage === '
                 ))}
               </ul>
             )}
+            <AnalysisOverlay state={live.state} ann={live.ann} camera={camera} lit={live.lit} pointer={state.cursor} pointerNet={live.pointerNet} />
+            <AnalysisHud state={live.state} actions={live.actions} ann={live.ann} />
             <div className="sheet-zoom">
               <button type="button" className="tb-btn" title="Zoom out" onClick={() => dispatch({ type: 'command', id: 'view.zoomOut' })}>−</button>
               <span className="zoom-value">{Math.round(camera.scale * 50)}%</span>
@@ -137,6 +149,7 @@ export function App({ editor, examples = [], storage = typeof localStorage === '
           <>
             <GridLayer camera={camera} width={size.width} height={size.height} />
             <PartsLayer doc={doc} selection={selection} hover={state.hover} />
+            <AnalysisWireLayer doc={doc} ann={live.ann} netOfWire={live.netOfWire} lit={live.lit} scale={camera.scale} />
             <OverlayLayer junctions={analysis.junctions} issues={analysis.issues} scale={camera.scale} showIssues={showIssues} />
             <InteractionLayer state={state} scale={camera.scale} />
           </>
@@ -149,7 +162,7 @@ export function App({ editor, examples = [], storage = typeof localStorage === '
           <h2>Drawing checks</h2>
           <IssueList issues={analysis.issues} onPick={(iss) => { if (iss.part) editor.select([iss.part as PartId]); else if (iss.wire) editor.select([iss.wire]); }} />
         </div>
-        <ResultsPanel analysis={analysis} />
+        <ResultsPanel store={live.store} analysis={analysis} />
       </aside>
       <StatusLine
         mode={state.mode} cursor={state.cursor} selected={selection.size} errors={errors} warnings={warnings}
@@ -158,5 +171,6 @@ export function App({ editor, examples = [], storage = typeof localStorage === '
       {state.helpOpen && <HelpOverlay onClose={() => dispatch({ type: 'command', id: 'help.toggle' })} />}
       <input ref={host.fileInput} type="file" accept=".json,application/json" hidden data-testid="file-input" onChange={host.onFilePicked} />
     </div>
+    </AnalysisProvider>
   );
 }

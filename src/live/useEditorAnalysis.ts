@@ -1,0 +1,63 @@
+// Wires an editor to a live analysis store: every document change is submitted (drags throttled),
+// the wire under the pointer becomes the hovered net, and the overlay's data is derived once here
+// for the canvas layer, the HTML marks and the legend.
+import { useEffect, useMemo, useRef, useState } from 'react';
+import type { Editor } from '../editor/types';
+import { liveAnnotations } from './annotateLive';
+import { createLiveStore } from './store';
+import type { LiveStore } from './types';
+import { useAnalysis } from './useAnalysis';
+import { netOfWire, netsOfPole } from '../canvas/overlayModel';
+
+/** The given store, or one owned by the calling component (disposed when it unmounts). */
+function useOwnedStore(given?: LiveStore): LiveStore {
+  const own = useRef<LiveStore | null>(null);
+  const [, remake] = useState(0);
+  if (!given && !own.current) own.current = createLiveStore();
+  useEffect(() => {
+    if (given) return;
+    return () => {
+      // StrictMode runs effects twice: the store is made again on the next render.
+      own.current?.actions.dispose();
+      own.current = null;
+      remake((n) => n + 1);
+    };
+  }, [given]);
+  return given ?? own.current!;
+}
+
+export function useEditorAnalysis(editor: Editor, given?: LiveStore) {
+  const store = useOwnedStore(given);
+  const { state, actions } = useAnalysis(store);
+  const doc = editor.document;
+  const dragging = editor.state.mode === 'select.moving';
+
+  useEffect(() => {
+    if (store.getState().doc !== doc) actions.submit(doc, { drag: dragging });
+  }, [store, actions, doc, dragging]);
+
+  const wires = useMemo(() => netOfWire(state.drawing), [state.drawing]);
+  const hover = editor.state.hover;
+  const pointerNet = hover.type === 'wire' && state.result?.ok ? wires.get(hover.wire) ?? null : null;
+  const lastPointerNet = useRef<string | null>(null);
+  useEffect(() => {
+    if (pointerNet === lastPointerNet.current) return;
+    lastPointerNet.current = pointerNet;
+    actions.hoverNet(pointerNet);
+  }, [actions, pointerNet]);
+
+  const s = state.settings;
+  const ann = useMemo(
+    () => liveAnnotations(state),
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+    [state.doc, state.result, state.loops, s.frequencyHz, s.colorMode, s.selectedLoopId],
+  );
+  const lit = useMemo(() => {
+    const set = new Set(netsOfPole(state.result, s.hoveredPoleIndex));
+    if (s.hoveredNet) set.add(s.hoveredNet);
+    if (s.selectedNet) set.add(s.selectedNet);
+    return set;
+  }, [state.result, s.hoveredPoleIndex, s.hoveredNet, s.selectedNet]);
+
+  return { store, state, actions, ann, lit, netOfWire: wires, pointerNet };
+}
