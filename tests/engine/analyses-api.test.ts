@@ -56,6 +56,19 @@ describe('analyze() on the examples', () => {
     expect(off.dcGain! / (ro1 + ro2 + (gm + N.eta * gm) * ro1 * ro2)).toBeCloseTo(1, 9);
   });
 
+  it('source follower: Rout = 1/(gm + gmb + gds1 + gds2) and gain gm·Rout (Razavi, source follower)', () => {
+    const gm = 10 * 100e-6, gmb = N.eta * gm;
+    const gds1 = (N.lambdaL / 0.3e-6) * 100e-6, gds2 = (N.lambdaL / 1e-6) * 100e-6;
+    const rout = 1 / (gm + gmb + gds1 + gds2);
+    const r = analyze(load('follower-sampling-load.json'));
+    expect(r.nodes.find((n) => n.name === 'out')!.dcOhms! / rout).toBeCloseTo(1, 10);
+    expect(r.dcGain! / (gm * rout)).toBeCloseTo(1, 10);
+    // The 2 pF sampling capacitor behind 300 Ω is the slowest node: τ ≈ (Rout + 300 Ω)·2 pF.
+    const samp = r.nodes.find((n) => n.name === 'samp')!;
+    expect(samp.slowest).toBe(true);
+    expect(samp.dcOhms! / (rout + 300)).toBeCloseTo(1, 10);
+  });
+
   it('two-stage amplifier in unity feedback: DC gain A/(1 + A), A = gm1·R1·gm2·R2 (common practice)', () => {
     const A = 100e-6 * 2e6 * 1e-3 * 200e3;
     const r = analyze(load('two-stage-miller-unity.json'));
