@@ -4,7 +4,9 @@ import type { Editor } from '../editor/types';
 import type { DrawingDocument } from '../schematic/document';
 import { tidyEditor, type TidyResult } from '../layout/tidy';
 import { workerElk } from '../layout/elkWorker';
-import { analyseDrawing, annotatedSvg, drawingReport, type ExportOptions } from './exportDrawing';
+import { analyseDrawing, annotatedSvg, drawingReport, shownSvg, type ExportOptions } from './exportDrawing';
+import type { SchematicAnnotations } from './annotations';
+import type { AnalysisResult } from '../engine/index';
 import { bodeSvg, poleZeroSvg } from './plotSvg';
 
 export function downloadText(name: string, mime: string, text: string): void {
@@ -23,11 +25,18 @@ function baseName(doc: DrawingDocument): string {
 }
 
 /** Top-bar handlers (TopBar props onExportSvg / onExportReport / onExportPlots). */
-export function exportActions(getDoc: () => DrawingDocument, getOptions: () => ExportOptions & { compareOff?: string[] } = () => ({})) {
+export function exportActions(
+  getDoc: () => DrawingDocument,
+  getOptions: () => ExportOptions & { compareOff?: string[] } = () => ({}),
+  /** What the canvas overlay shows now (src/live liveAnnotations + its result); when given, the
+   *  SVG is drawn from exactly that, else recomputed from the drawing with getOptions(). */
+  getShown?: () => { annotations: SchematicAnnotations; result: AnalysisResult } | null,
+) {
   return {
     onExportSvg: () => {
       const doc = getDoc();
-      downloadText(`${baseName(doc)}.svg`, 'image/svg+xml', annotatedSvg(doc, getOptions()));
+      const shown = getShown?.();
+      downloadText(`${baseName(doc)}.svg`, 'image/svg+xml', shown ? shownSvg(doc, shown, getOptions()) : annotatedSvg(doc, getOptions()));
     },
     onExportReport: () => {
       const doc = getDoc();

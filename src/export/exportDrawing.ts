@@ -68,6 +68,13 @@ export function annotatedSvg(doc: DrawingDocument, opts: ExportOptions = {}): st
   return schematicSvg(doc, annotationsFor(doc, an, opts), titleBlockFor(doc, an, opts));
 }
 
+/** The SVG of what the screen shows: the live overlay's annotations (annotate() output, possibly
+ *  recoloured, e.g. by τ) and the result they came from, so the file matches the canvas exactly. */
+export function shownSvg(doc: DrawingDocument, shown: { annotations: SchematicAnnotations; result: AnalysisResult }, opts: ExportOptions = {}): string {
+  const an: DrawingAnalysis = { netlist: null, result: shown.result, loops: { status: 'not-computed', loops: [], raw: [] }, problems: [] };
+  return schematicSvg(doc, shown.annotations, titleBlockFor(doc, an, opts));
+}
+
 /** JSON and CSV report; with `compareOff`, side B is the same drawing with those switched off. */
 export function drawingReport(doc: DrawingDocument, opts: ExportOptions & { compareOff?: string[] } = {}): { json: string; csv: string; problems: string[] } {
   const a = analyseDrawing(doc, opts);

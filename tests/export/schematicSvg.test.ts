@@ -103,3 +103,18 @@ describe('annotated schematic SVG', () => {
     expect(all(xml, 'g').filter((g) => g.getAttribute('class') === 'badge')).toEqual([]);
   });
 });
+
+describe('export of what the screen shows', () => {
+  it('draws the given overlay data unchanged (e.g. nets recoloured by the live view)', async () => {
+    const { shownSvg } = await import('../../src/export/exportDrawing');
+    const doc = await exampleDrawing('sensor-cs-miller');
+    const an = analyseDrawing(doc);
+    const ann = annotationsFor(doc, an);
+    const recoloured = { ...ann, nets: Object.fromEntries(Object.entries(ann.nets).map(([k, m]) => [k, { ...m, color: '#123456' }])) };
+    const { doc: xml, problems } = parseXml(shownSvg(doc, { annotations: recoloured, result: an.result! }, { date: DATE }));
+    expect(problems).toEqual([]);
+    const nets = all(xml, 'g').filter((g) => g.getAttribute('class') === 'net' && Object.keys(ann.nets).some((n) => g.getAttribute('id') === `net-${n}`));
+    expect(nets.length).toBe(Object.keys(ann.nets).length);
+    for (const g of nets) expect(g.getAttribute('stroke')).toBe('#123456');
+  });
+});
