@@ -1,6 +1,6 @@
 // The results area fed by the live analysis store: a summary line (gain, bandwidth, unity gain,
 // busy mark), then tabs of our own: Poles, Nodes, Loops, Compare, Plots.
-import { useMemo, useState } from 'react';
+import { useMemo, useRef, useState } from 'react';
 import type { LiveActions, LiveState } from '../../live/types';
 import { PolesList } from './PolesList';
 import { NodeTable } from './NodeTable';
@@ -27,11 +27,19 @@ function labelsOf(state: LiveState, ids: string[]): string[] {
 
 export function LiveResults({ state, actions, initialTab = 'poles' }: LiveResultsProps) {
   const [tab, setTab] = useState<ResultsTab>(initialTab);
-  const { result, feedback, settings } = state;
-  const groups = useMemo(() => loopGroups(feedback), [feedback]);
+  const { result, settings } = state;
+  const offSources = settings.offLoopIds.map((id) => state.loops[id]?.key).filter((k): k is string => !!k);
+  // While the feedback stage of a new run is coming, the last loops stay listed (dimmed) so the
+  // list does not flicker; loops just switched off are left out of that stale list.
+  const lastFeedback = useRef(state.feedback);
+  if (state.feedback) lastFeedback.current = state.feedback;
+  if (!state.feedbackPending && !state.feedback) lastFeedback.current = null;
+  const stale = !state.feedback && state.feedbackPending && lastFeedback.current !== null;
+  const feedback = state.feedback ?? (stale ? lastFeedback.current : null);
+  const allGroups = useMemo(() => loopGroups(feedback), [feedback]);
+  const groups = stale ? allGroups.filter((g) => !offSources.includes(g.key)) : allGroups;
   const selGroup = groupOf(groups, settings.selectedLoopId);
   const selEntry = settings.selectedLoopId ? state.loops[settings.selectedLoopId] : undefined;
-  const offSources = settings.offLoopIds.map((id) => state.loops[id]?.key).filter((k): k is string => !!k);
   const errors = state.issues.filter((i) => i.severity === 'error');
   const busy = state.status === 'busy';
 
@@ -78,7 +86,7 @@ export function LiveResults({ state, actions, initialTab = 'poles' }: LiveResult
               blackman={selGroup ? state.blackman[selGroup.key] ?? null : null} loopLabel={selGroup?.label ?? null} />
           )}
           {tab === 'loops' && (
-            <LoopsList groups={groups} known={state.loops} offLoopIds={settings.offLoopIds} selectedLoopId={settings.selectedLoopId}
+            <LoopsList stale={stale} groups={groups} known={state.loops} offLoopIds={settings.offLoopIds} selectedLoopId={settings.selectedLoopId}
               pending={state.feedbackPending} onSelect={actions.selectLoop} onSetEnabled={actions.setLoopEnabled} notes={feedback?.notes} />
           )}
           {tab === 'compare' && (
@@ -86,7 +94,7 @@ export function LiveResults({ state, actions, initialTab = 'poles' }: LiveResult
               offNow={labelsOf(state, settings.offLoopIds)} offPinned={labelsOf(state, state.pinnedA?.settings.offLoopIds ?? [])} />
           )}
           {tab === 'plots' && (
-            <PlotsPanel result={result} feedback={feedback} netlist={state.netlist} offSources={offSources}
+            <PlotsPanel result={result} feedback={state.feedback} netlist={state.netlist} offSources={offSources}
               loop={selGroup ? { key: selGroup.key, label: selGroup.label } : selEntry ? { key: selEntry.key, label: selEntry.label } : null}
               node={settings.selectedNet} onSelectNet={actions.selectNet} pinned={state.pinnedA?.result ?? null} feedbackPending={state.feedbackPending} />
           )}

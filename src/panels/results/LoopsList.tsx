@@ -15,6 +15,8 @@ export interface LoopsListProps {
   pending: boolean;
   onSelect: (id: string | null) => void;
   onSetEnabled: (id: string, enabled: boolean) => void;
+  /** The groups are from the previous run (the new feedback stage is still coming). */
+  stale?: boolean;
   /** Notes of the loop search (e.g. the list was cut). */
   notes?: string[];
 }
@@ -44,14 +46,14 @@ function Switch({ on, label, onChange }: { on: boolean; label: string; onChange:
   );
 }
 
-export function LoopsList({ groups, known, offLoopIds, selectedLoopId, pending, onSelect, onSetEnabled, notes = [] }: LoopsListProps) {
+export function LoopsList({ groups, known, offLoopIds, selectedLoopId, pending, onSelect, onSetEnabled, stale = false, notes = [] }: LoopsListProps) {
   const present = new Set(groups.map((g) => g.key));
   const off = offGroups(known, offLoopIds, present);
   if (!groups.length && !off.length) {
     return <p className="rp-empty" data-testid="loops-empty">{pending ? 'Looking for feedback loops…' : 'No feedback loop with a loop gain above 1 % was found.'}</p>;
   }
   return (
-    <div className="rp-loops">
+    <div className={`rp-loops${stale ? ' stale' : ''}`} aria-busy={pending}>
       {groups.map((g) => {
         const selected = g.cycles.some((c) => c.id === selectedLoopId);
         return (

@@ -1,5 +1,6 @@
 // Every exact pole (Hz, Q) with the nodes that carry it; hovering a row lights those nets on the
 // canvas (through the store), and a hovered net lights the rows it carries. Zeros follow, compact.
+import { useState } from 'react';
 import type { AnalysisResult, Zero } from '../../engine/index';
 import { fmtHz, fmtQ } from './format';
 import { poleKindText, poleRows } from './poleRows';
@@ -14,15 +15,20 @@ export interface PolesListProps {
 
 const pct = (x: number) => `${Math.round(x * 100)} %`;
 
+/** Rows shown before "show all" (the slowest poles matter most to a designer). */
+export const POLES_SHOWN = 10;
+
 function zeroQ(z: Zero): number | null {
   if (z.im === 0 || z.re === 0) return null;
   return Math.hypot(z.re, z.im) / (2 * Math.abs(z.re));
 }
 
 export function PolesList({ result, hoveredPoleIndex, hoveredNet, onHoverPole, onPickNet }: PolesListProps) {
-  const rows = poleRows(result.poles, result.participation);
+  const [all, setAll] = useState(false);
+  const allRows = poleRows(result.poles, result.participation);
+  const rows = all ? allRows : allRows.slice(0, POLES_SHOWN);
   const zeros = result.zeros.filter((z) => z.im >= 0);
-  if (!rows.length) {
+  if (!allRows.length) {
     return <p className="rp-empty" data-testid="poles-empty">{result.reasons.poles ?? 'No finite poles: the circuit has no capacitance or inductance that sets a time constant.'}</p>;
   }
   return (
@@ -55,6 +61,11 @@ export function PolesList({ result, hoveredPoleIndex, hoveredNet, onHoverPole, o
           })}
         </tbody>
       </table>
+      {allRows.length > POLES_SHOWN ? (
+        <button type="button" className="rp-btn" onClick={() => setAll((a) => !a)}>
+          {all ? `Show the ${POLES_SHOWN} slowest` : `Show all ${allRows.length} poles`}
+        </button>
+      ) : null}
       {result.poleInfo.originCount > 0 ? <p className="rp-note">{result.poleInfo.originCount} pole{result.poleInfo.originCount > 1 ? 's' : ''} at s = 0 (ideal integrator).</p> : null}
       <p className="rp-zeros" data-testid="zeros">
         <span className="rp-label">Zeros </span>
