@@ -9,8 +9,7 @@ import { freshId, GRID, pinKey, snap } from '../schematic/document';
 import { newPart, nextRef } from '../schematic/kinds';
 import { placedBounds, placedPins, type PinSide } from '../schematic/symbols';
 import type { ElkGraphJson } from './elkGraph';
-import { portId } from './elkGraph';
-import { buildModel, gridRect, partBox, railStub, unionRect, type LayoutModel, type RailStub, type Rect } from './model';
+import { gridRect, partBox, railStub, unionRect, type LayoutModel, type RailStub, type Rect } from './model';
 import { mazeRoute } from './maze';
 import { Occupancy, between, simplify } from './occupancy';
 
@@ -207,5 +206,3 @@ export function applyElkLayout(draft: Draft<DrawingDocument> | DrawingDocument, 
   }
   return outcome;
 }
-
-export { buildModel, portId };
