@@ -27,6 +27,8 @@ interface Props {
   onExportSvg?: () => void;
   onExportReport?: () => void;
   onExportPlots?: () => void;
+  /** Show the Tidy button (the editor implements the tidy action). */
+  canTidy?: boolean;
 }
 
 function keyOf(id: string): string | undefined {
@@ -92,7 +94,7 @@ export function TopBar(props: Props) {
         <button type="button" className="tb-btn" title={tip('edit.turn')} onClick={() => onCommand('edit.turn')}>Turn</button>
         <button type="button" className="tb-btn" title={tip('edit.flip')} onClick={() => onCommand('edit.flip')}>Flip</button>
         <button type="button" className="tb-btn" title={tip('view.fit')} onClick={() => onCommand('view.fit')}>Fit</button>
-        <button type="button" className="tb-btn" title={tip('layout.tidy')} onClick={() => onCommand('layout.tidy')}>Tidy</button>
+        {props.canTidy && <button type="button" className="tb-btn" title={tip('layout.tidy')} onClick={() => onCommand('layout.tidy')}>Tidy</button>}
         <button type="button" className={`tb-btn${props.showIssues ? ' on' : ''}`} aria-pressed={props.showIssues} title="Show drawing problems on the drawing" onClick={props.onToggleIssues}>Checks</button>
       </div>
       <div className="tb-group">
