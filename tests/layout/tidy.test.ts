@@ -129,3 +129,14 @@ describe('tidy layout', () => {
     expect(r.message).toMatch(/worker gone/);
   });
 });
+
+describe('tidy is deterministic', () => {
+  it('gives the same drawing for the same input, and a tidy of a tidy keeps every connection', async () => {
+    const a = await tidyDocument(csStage(), elk);
+    const b = await tidyDocument(csStage(), elk);
+    expect(b.doc).toEqual(a.doc);
+    const again = await tidyDocument(a.doc, elk);
+    expect(again.status).toBe('ok');
+    expect(sameConnectivity(a.doc, again.doc)).toBe(true);
+  });
+});
