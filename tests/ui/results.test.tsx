@@ -194,4 +194,23 @@ describe('results panels on the live store', () => {
     expect(store.getState().settings.selectedNet).toBe(other);
     expect(screen.getByLabelText(new RegExp(`Node impedance \\|Z\\|: ${other}`), { selector: 'svg' })).toBeTruthy();
   });
+
+  it('"compare with it off" pins A, breaks the loop and shows the held node before and after', async () => {
+    const doc = EXAMPLE_DRAWINGS.find((e) => e.id === 'readout-cascode-regulated')!.load();
+    const store = mount();
+    act(() => store.actions.submit(doc));
+    await settled(store);
+    tab(/Loops/);
+    const item = screen.getAllByTestId('loop-item').find((e) => e.getAttribute('data-key') === 'A1.A0')!;
+    fireEvent.click(within(item).getByRole('button', { name: /Compare with it off/ }));
+    expect(store.getState().pinnedA).not.toBeNull();
+    await waitFor(() => expect(store.getState().settings.offLoopIds).toHaveLength(1));
+    await settled(store);
+    const out = await screen.findAllByTestId('cmp-node').then((rows) => rows.find((r) => r.getAttribute('data-node') === 'out')!);
+    const cells = within(out).getAllByRole('cell').map((c) => c.textContent!);
+    // A (loop on) over B (loop off) for the regulated cascode, from the formula in the switching
+    // test with ro·gm ≫ 1: Rout(A)/Rout(0) ≈ (gm·(1 + A) + gmb)/(gm + gmb), about 80 for A = 100.
+    expect(si(cells[0]) / si(cells[1])).toBeGreaterThan(50);
+    expect(cells[2]).toMatch(/^÷ /);
+  });
 });

@@ -87,7 +87,8 @@ export function LiveResults({ state, actions, initialTab = 'poles' }: LiveResult
           )}
           {tab === 'loops' && (
             <LoopsList stale={stale} groups={groups} known={state.loops} offLoopIds={settings.offLoopIds} selectedLoopId={settings.selectedLoopId}
-              pending={state.feedbackPending} onSelect={actions.selectLoop} onSetEnabled={actions.setLoopEnabled} notes={feedback?.notes} />
+              pending={state.feedbackPending} onSelect={actions.selectLoop} onSetEnabled={actions.setLoopEnabled} notes={feedback?.notes}
+              onCompareOff={(id) => { actions.pinA(); actions.setLoopEnabled(id, false); setTab('compare'); }} />
           )}
           {tab === 'compare' && (
             <ComparePanel pinned={state.pinnedA} current={result} busy={busy} gainUnit={gu} onPin={actions.pinA} onClear={actions.clearPin}

@@ -15,6 +15,8 @@ export interface LoopsListProps {
   pending: boolean;
   onSelect: (id: string | null) => void;
   onSetEnabled: (id: string, enabled: boolean) => void;
+  /** Pin the present result as A and switch the loop off (B), to see what it does. */
+  onCompareOff?: (id: string) => void;
   /** The groups are from the previous run (the new feedback stage is still coming). */
   stale?: boolean;
   /** Notes of the loop search (e.g. the list was cut). */
@@ -46,7 +48,7 @@ function Switch({ on, label, onChange }: { on: boolean; label: string; onChange:
   );
 }
 
-export function LoopsList({ groups, known, offLoopIds, selectedLoopId, pending, onSelect, onSetEnabled, stale = false, notes = [] }: LoopsListProps) {
+export function LoopsList({ groups, known, offLoopIds, selectedLoopId, pending, onSelect, onSetEnabled, onCompareOff, stale = false, notes = [] }: LoopsListProps) {
   const present = new Set(groups.map((g) => g.key));
   const off = offGroups(known, offLoopIds, present);
   if (!groups.length && !off.length) {
@@ -83,6 +85,10 @@ export function LoopsList({ groups, known, offLoopIds, selectedLoopId, pending, 
               <p className="rp-note" title={g.booster.verdict}>
                 Booster placement fits: f<sub>u</sub> {fmtHz(g.booster.boosterUnityGainHz)} lies between the closed-loop bandwidth {fmtHz(g.booster.mainBandwidthHz)} and the non-dominant pole {fmtHz(g.booster.mainNonDominantHz)}.
               </p>
+            ) : null}
+            {onCompareOff ? (
+              <button type="button" className="rp-btn rp-what" onClick={() => onCompareOff(g.primaryId)}
+                title="Pin the present result as A, switch this loop off and compare">What does it do? Compare with it off</button>
             ) : null}
             {g.cycles.length > 1 ? (
               <ul className="rp-cycles" aria-label={`Paths through ${g.key}`}>
