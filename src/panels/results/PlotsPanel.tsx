@@ -42,8 +42,8 @@ export function PlotsPanel({ result, feedback, netlist, loop, offSources, node, 
   const range = result.conditions.sweep;
   const needsLoop = kind === 'loop' || kind === 'splane';
   const ask: LoopDetailAsk | null = useMemo(() => (needsLoop && loop && netlist && range
-    ? { netlist, key: loop.key, offSources, fMin: range.fMin, fMax: range.fMax, perDecade: Math.min(range.perDecade, 20) }
-    : null), [needsLoop, loop, netlist, range, offSources]);
+    ? { netlist, key: loop.key, offSources, fMin: range.fMin, fMax: range.fMax, perDecade: Math.min(range.perDecade, 20), part: kind === 'loop' ? 'gain' as const : 'locus' as const }
+    : null), [needsLoop, loop, netlist, range, offSources, kind]);
   const { detail, pending } = useLoopDetail(ask);
 
   const view = (w: number, h: number) => {

@@ -19,11 +19,14 @@ export interface LoopDetailRequest {
   fMin: number;
   fMax: number;
   perDecade: number;
+  /** What to compute: the loop gain sweep (quick) or the root locus (one QZ per step, slower). */
+  part: 'gain' | 'locus';
 }
 
 export interface LoopDetail {
   id: number;
   key: string;
+  part: 'gain' | 'locus';
   hz: number[];
   /** T(j2πf) per frequency; null where it is undefined. */
   values: (Cx | null)[];
@@ -36,18 +39,21 @@ export interface LoopDetail {
 const LOCUS_STEPS = 160;
 
 export function computeLoopDetail(req: LoopDetailRequest): LoopDetail {
-  const empty: LoopDetail = { id: req.id, key: req.key, hz: [], values: [], locus: null };
+  const empty: LoopDetail = { id: req.id, key: req.key, part: req.part, hz: [], values: [], locus: null };
   try {
     const built = buildMna(req.netlist);
     if (!built.system) return { ...empty, message: `loop ${req.key}: the circuit does not build (${built.issues.find((i) => i.severity === 'error')?.message ?? 'errors in the drawing'})` };
     const scale: Record<string, number> = {};
     for (const id of req.offSources) scale[id] = 0;
+    if (req.part === 'locus') {
+      const locus = rootLocus(built.system, req.key, { scale, maxSteps: LOCUS_STEPS });
+      return { ...empty, locus, message: locus.message };
+    }
     const hz = Array.from(logGrid(req.fMin, req.fMax, req.perDecade));
     const sweep = returnRatios(built.system, { ids: [req.key], freqsHz: hz, scale })[0];
     if (!sweep) return { ...empty, message: `loop ${req.key}: no controlled source of that name in this circuit` };
     const values = sweep.points.map((p) => (p.value && Number.isFinite(p.value.re) && Number.isFinite(p.value.im) ? p.value : null));
-    const locus = rootLocus(built.system, req.key, { scale, maxSteps: LOCUS_STEPS });
-    return { id: req.id, key: req.key, hz, values, locus, message: sweep.message };
+    return { ...empty, hz, values, message: sweep.message };
   } catch (e) {
     return { ...empty, message: `loop ${req.key}: ${e instanceof Error ? e.message : String(e)}` };
   }

@@ -11,6 +11,7 @@ export interface LoopDetailAsk {
   fMin: number;
   fMax: number;
   perDecade: number;
+  part: 'gain' | 'locus';
 }
 
 interface Channel { post(req: LoopDetailRequest): void; close(): void }
@@ -45,16 +46,15 @@ export function useLoopDetail(ask: LoopDetailAsk | null): { detail: LoopDetail |
   const latest = useRef(0);
   const channel = useRef<Channel | null>(null);
   useEffect(() => () => { channel.current?.close(); channel.current = null; }, []);
-  const askKey = ask ? JSON.stringify([ask.key, ask.offSources, ask.fMin, ask.fMax, ask.perDecade]) : '';
+  const askKey = ask ? JSON.stringify([ask.key, ask.part, ask.offSources, ask.fMin, ask.fMax, ask.perDecade]) : '';
   const netlist = ask?.netlist;
   useEffect(() => {
     if (!ask) return;
     if (!channel.current) channel.current = openChannel((d) => { if (d.id === latest.current) setDetail(d); });
     latest.current += 1;
     channel.current.post({ id: latest.current, ...ask });
-    // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [askKey, netlist]);
   if (!ask) return { detail: null, pending: false };
-  const fresh = detail && detail.id === latest.current && detail.key === ask.key ? detail : null;
+  const fresh = detail && detail.id === latest.current && detail.key === ask.key && detail.part === ask.part ? detail : null;
   return { detail: fresh, pending: !fresh };
 }
