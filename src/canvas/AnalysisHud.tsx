@@ -26,7 +26,7 @@ export function AnalysisHud({ state, actions, ann }: { state: LiveState; actions
           <div className="ao-legend-title">{legend.title}</div>
           <div className="ao-legend-bar" style={{ background: `linear-gradient(to right, ${legend.stops.map((s) => `${s.color} ${(s.t * 100).toFixed(1)}%`).join(', ')})` }} />
           <div className="ao-legend-ticks">
-            {legend.stops.map((s) => <span key={s.label} style={{ left: `${s.t * 100}%` }}>{s.label}</span>)}
+            {legend.stops.filter((_, i, all) => all.length <= 4 || i % 2 === (all.length - 1) % 2).map((s) => <span key={s.label} style={{ left: `${s.t * 100}%`, transform: s.t < 0.05 ? 'none' : s.t > 0.95 ? 'translateX(-100%)' : undefined }}>{s.label}</span>)}
           </div>
           <div className="ao-legend-none"><i style={{ background: legend.noValueColor }} /> {legend.noValueLabel}</div>
         </div>

@@ -7,6 +7,7 @@ import type { SchematicAnnotations } from '../export/annotations';
 import type { LiveState } from '../live/types';
 import { worldToScreen, type Camera, type Point } from './camera';
 import { badgesOnScreen, wireReadout } from './overlayModel';
+import { layoutBadges } from './badgeLayout';
 import './analysis-overlay.css';
 
 interface Props {
@@ -24,17 +25,25 @@ interface Props {
 const MAX_CALLOUTS = 8;
 
 function AnalysisOverlayView({ state, ann, camera, lit, pointer, pointerNet }: Props) {
-  const badges = useMemo(() => (ann ? badgesOnScreen(ann.badges, camera) : []), [ann, camera]);
+  const placed = useMemo(() => (ann && state.doc ? layoutBadges(state.doc, ann.badges, ann.slowest ? [ann.slowest.net] : []) : []), [ann, state.doc]);
+  const badges = useMemo(() => badgesOnScreen(placed, camera), [placed, camera]);
   if (!state.result || !state.result.ok) return <FaultCallouts state={state} camera={camera} />;
   if (!ann) return null;
   const slowest = ann.slowest;
   const selected = state.settings.selectedNet;
   return (
-    <div className="ao-root" data-testid="analysis-overlay" aria-label="Analysis marks (linear small-signal estimates)">
+    <div className="ao-root" data-testid="analysis-overlay" aria-label="Analysis marks (linear small-signal estimates)"
+      data-camera={`${camera.scale},${camera.x},${camera.y}`}>
+      <svg className="ao-leaders" aria-hidden="true">
+        {badges.map((b, i) => placed[i].leader && !b.collapsed && (
+          <line key={b.net} x1={b.anchor.x} y1={b.anchor.y} x2={clamp(b.anchor.x, b.left, b.left + b.width)} y2={clamp(b.anchor.y, b.top, b.top + b.height)} />
+        ))}
+      </svg>
       {badges.map((b) => {
-        const cls = ['ao-badge', lit.has(b.net) ? 'lit' : '', slowest?.net === b.net ? 'slowest' : '', selected === b.net ? 'selected' : ''].filter(Boolean).join(' ');
+        const marks = [lit.has(b.net) ? 'lit' : '', slowest?.net === b.net ? 'slowest' : '', selected === b.net ? 'selected' : ''].filter(Boolean).join(' ');
+        const cls = `ao-badge ${marks}`.trim();
         if (b.collapsed) {
-          return <span key={b.net} className={`ao-dot ${cls}`} data-net={b.net} title={b.lines.join(' · ')} style={{ left: b.anchor.x - 3, top: b.anchor.y - 3, background: ann.nets[b.net]?.color }} />;
+          return <span key={b.net} className={`ao-dot ${marks}`.trim()} data-net={b.net} title={b.lines.join(' · ')} style={{ left: b.anchor.x - 3, top: b.anchor.y - 3, background: ann.nets[b.net]?.color }} />;
         }
         return (
           <div key={b.net} className={cls} data-testid={`badge-${b.net}`} data-net={b.net}
@@ -49,6 +58,8 @@ function AnalysisOverlayView({ state, ann, camera, lit, pointer, pointerNet }: P
     </div>
   );
 }
+
+const clamp = (v: number, lo: number, hi: number) => Math.min(hi, Math.max(lo, v));
 
 /** When the slowest badge is collapsed (zoomed out) its mark still says what it is. */
 function SlowestLabel({ text, at, collapsed }: { text: string; at: Point; collapsed: boolean }) {
