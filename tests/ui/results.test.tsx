@@ -6,6 +6,8 @@ import { describe, it, expect } from 'vitest';
 import { act, fireEvent, render, screen, waitFor, within } from '@testing-library/react';
 import { ResultsPanel } from '../../src/panels/ResultsPanel';
 import { createLiveStore } from '../../src/live/index';
+import { analyze } from '../../src/engine/index';
+import type { AnalysisRunner, RunMessage } from '../../src/worker/protocol';
 import type { LiveStore } from '../../src/live/index';
 import { EXAMPLE_DRAWINGS } from '../../src/examples/index';
 import { documentToNetlist } from '../../src/schematic/toNetlist';
@@ -212,5 +214,28 @@ describe('results panels on the live store', () => {
     // test with ro·gm ≫ 1: Rout(A)/Rout(0) ≈ (gm·(1 + A) + gmb)/(gm + gmb), about 80 for A = 100.
     expect(si(cells[0]) / si(cells[1])).toBeGreaterThan(50);
     expect(cells[2]).toMatch(/^÷ /);
+  });
+
+  it('a failed feedback stage is named while the figures of the first stage stay shown', async () => {
+    const listeners: ((m: RunMessage) => void)[] = [];
+    const runner: AnalysisRunner = {
+      kind: 'same-thread',
+      run(req) {
+        setTimeout(() => {
+          const result = analyze(req.netlist, { frequencyHz: req.frequencyHz, off: req.offSources, impedanceSweep: true });
+          listeners.forEach((fn) => fn({ runId: req.runId, stage: 1, result }));
+          listeners.forEach((fn) => fn({ runId: req.runId, stage: 'failed', message: 'feedback analysis: test failure' }));
+        }, 0);
+      },
+      onMessage: (fn) => { listeners.push(fn); },
+      dispose() {},
+    };
+    const store = createLiveStore({ runner });
+    render(<ResultsPanel store={store} />);
+    act(() => store.actions.submit(rcDrawing('1p')));
+    const msg = await screen.findByTestId('results-failure');
+    expect(msg.textContent).toMatch(/feedback analysis: test failure/);
+    // 1/(2πRC) still shown (textbook RC pole)
+    expect(firstPoleHz()).toBeCloseTo(1 / (2 * Math.PI * 10e3 * 1e-12), -5);
   });
 });

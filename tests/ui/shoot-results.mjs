@@ -1,10 +1,10 @@
 // Visual check of the results panels in headless Chromium (not a test; run by hand):
-//   npx vite --config src/vite.config.ts --port 5191 --strictPort &   then   node tests/ui/shoot-results.mjs
+//   npx vite --config src/vite.config.ts --port 5191 --strictPort &   then   node tests/ui/shoot-results.mjs [url] [example ids…]
 // Writes screenshots into tests/artifacts/results-*.png and prints console problems of the page.
 import { chromium } from 'playwright-core';
 import { mkdirSync } from 'node:fs';
 
-const base = process.argv[2] ?? 'http://localhost:5191/tests/ui/harness/results.html';
+const base = process.argv[2] || 'http://localhost:5191/tests/ui/harness/results.html';
 const out = new URL('../artifacts/', import.meta.url).pathname;
 mkdirSync(out, { recursive: true });
 const browser = await chromium.launch({
@@ -24,7 +24,8 @@ async function open(example) {
 const shot = (page, name) => page.locator('aside.side').screenshot({ path: `${out}results-${name}.png` });
 const tab = (page, name) => page.getByRole('tab', { name, exact: false }).first().click();
 
-for (const ex of ['two-stage-miller-unity', 'readout-cascode-regulated']) {
+const examples = process.argv.slice(3);
+for (const ex of examples.length ? examples : ['two-stage-miller-unity', 'readout-cascode-regulated']) {
   const page = await open(ex);
   const short = ex.split('-').slice(0, 2).join('-');
   await shot(page, `${short}-poles`);

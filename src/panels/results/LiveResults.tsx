@@ -44,8 +44,10 @@ export function LiveResults({ state, actions, initialTab = 'poles' }: LiveResult
   const busy = state.status === 'busy';
 
   let body: React.ReactNode;
-  if (state.failure) {
-    body = <p className="rp-error" aria-live="assertive">The analysis could not run: {state.failure}</p>;
+  // A failure of one stage (e.g. the feedback analysis) leaves the other stage's figures valid.
+  const failure = state.failure ? <p className="rp-error" aria-live="assertive" data-testid="results-failure">Part of the analysis could not run: {state.failure}</p> : null;
+  if (state.failure && (!result || !result.ok)) {
+    body = failure;
   } else if (!result || !result.ok) {
     body = errors.length ? (
       <div aria-live="assertive" className="rp-error" data-testid="results-errors">
@@ -60,6 +62,7 @@ export function LiveResults({ state, actions, initialTab = 'poles' }: LiveResult
     const gainText = g === null ? '—' : gu.dimensionless ? `${fmtNum(g)} ${gu.unit} (${fmtDb(toDb(g))})` : fmtGain(g, gu.unit);
     body = (
       <>
+        {failure}
         <dl className="rp-summary" data-testid="results-summary">
           <dt title="the chosen input and output">{transferLabel(result)}</dt><dd data-testid="dc-gain">{gainText}</dd>
           <dt>−3 dB bandwidth</dt><dd>{fmtHz(result.bandwidthHz)}</dd>
