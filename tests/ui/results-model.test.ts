@@ -96,21 +96,31 @@ describe('loop groups', () => {
     expect(booster.cycles.length).toBe(fb.loops.filter((l) => l.loop.key === 'A1.A0').length);
     expect(booster.cycles[0].members.length).toBeLessThanOrEqual(booster.cycles[booster.cycles.length - 1].members.length);
     expect(booster.holds.join(' ')).toMatch(/holds the current into out/);
-    expect(groupOf(groups, booster.cycles[1].id)).toBe(booster);
+    expect(groupOf(groups, booster.cycles[booster.cycles.length - 1].id)).toBe(booster);
+    expect(groupOf(groups, 'A1.A0')).toBe(booster);
+    expect(groupOf(groups, 'no such loop')).toBeNull();
   });
 
   it('a loop open at DC (T(0) at roundoff) shows T(0) = 0 and no positive-feedback warning', () => {
-    // With the booster off, M2's body-effect source alone closes no loop at DC: the open drain
-    // carries no incremental current (an ideal current source load), so T(0) is 0 (from memory).
-    const off = analyzeFeedback(regulated, { off: ['A1.A0'] });
-    const g = loopGroups(off).find((x) => x.key === 'M2.gmb')!;
-    expect(g).toBeDefined();
-    expect(g.dcLoopGain).toBe(0);
-    expect(g.warnings.filter((w) => /positive feedback/.test(w))).toEqual([]);
+    // The booster loop of the regulated cascode has no gain at DC: the open drain (ideal current
+    // source load) carries no incremental current, so T(0) = 0 (from memory); a roundoff-sized
+    // negative T(0) must not be called positive feedback.
     const booster = loopGroups(fb).find((x) => x.key === 'A1.A0')!;
     expect(booster.dcLoopGain).toBe(0);
     expect(booster.label).toMatch(/→/);
     expect(booster.band!.fromHz).toBeGreaterThan(0);
+    const base = fb.loops.find((l) => l.loop.key === 'A1.A0')!;
+    const tiny = (re: number): FeedbackResult => ({
+      ...fb, boosters: [],
+      loops: [{ ...base, margins: { ...base.margins, status: 'positive-feedback', message: 'T at DC is negative', dc: { re, im: 0 }, phaseMarginDeg: null, gainMarginDb: null } }],
+    });
+    const g = loopGroups(tiny(-2.75e-17))[0];
+    expect(g.dcLoopGain).toBe(0);
+    expect(g.warnings).toEqual([]);
+    // a real negative T(0) is positive feedback and is flagged
+    const p = loopGroups(tiny(-3))[0];
+    expect(p.dcLoopGain).toBe(-3);
+    expect(p.warnings).toContain('T at DC is negative');
   });
 
   it('flag a phase margin under 45° and a failed booster placement', () => {
