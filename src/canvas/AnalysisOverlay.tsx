@@ -33,7 +33,7 @@ function AnalysisOverlayView({ state, ann, camera, lit, pointer, pointerNet }: P
   const selected = state.settings.selectedNet;
   return (
     <div className="ao-root" data-testid="analysis-overlay" aria-label="Analysis marks (linear small-signal estimates)"
-      data-camera={`${camera.scale},${camera.x},${camera.y}`}>
+      data-camera={`${camera.scale},${camera.x},${camera.y}`} data-runner={state.runner}>
       <svg className="ao-leaders" aria-hidden="true">
         {badges.map((b, i) => placed[i].leader && !b.collapsed && (
           <line key={b.net} x1={b.anchor.x} y1={b.anchor.y} x2={clamp(b.anchor.x, b.left, b.left + b.width)} y2={clamp(b.anchor.y, b.top, b.top + b.height)} />

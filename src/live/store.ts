@@ -23,7 +23,7 @@ export function createLiveStore(opts: LiveStoreOptions = {}): LiveStore {
   let state: LiveState = {
     runId: 0, status: 'idle', stage: 0, feedbackPending: false, result: null, feedback: null, blackman: {},
     issues: [], doc: null, drawing: null, netlist: null,
-    settings: { ...DEFAULT_SETTINGS, ...opts.settings }, loops: {}, pinnedA: null, failure: null,
+    settings: { ...DEFAULT_SETTINGS, ...opts.settings }, loops: {}, pinnedA: null, failure: null, runner: runner.kind,
   };
   const listeners = new Set<() => void>();
   const set = (patch: Partial<LiveState>) => {
@@ -64,6 +64,7 @@ export function createLiveStore(opts: LiveStoreOptions = {}): LiveStore {
 
   const onMessage = (m: RunMessage) => {
     if (disposed || m.runId !== state.runId) return; // stale run: dropped
+    if (runner.kind !== state.runner) state = { ...state, runner: runner.kind };
     if (m.stage === 'dropped') return;
     if (m.stage === 'failed') {
       set({ status: 'error', feedbackPending: false, failure: m.message });
@@ -81,7 +82,7 @@ export function createLiveStore(opts: LiveStoreOptions = {}): LiveStore {
     }
     const loops: Record<string, LoopEntry> = {};
     for (const id of state.settings.offLoopIds) if (state.loops[id]) loops[id] = state.loops[id];
-    for (const r of m.feedback.loops) loops[r.loop.id] = { id: r.loop.id, label: r.loop.label, key: r.loop.key, nets: r.loop.nets };
+    for (const r of m.feedback.loops) loops[r.loop.id] = { id: r.loop.id, label: r.loop.label, key: r.loop.key, nets: r.loop.nets, parts: [...new Set(r.loop.members.map((m) => m.part))] };
     const sel = state.settings.selectedLoopId;
     const fbIssues = engineIssues(m.feedback.issues.filter((i) => i.severity === 'error'), doc, drawing);
     set({

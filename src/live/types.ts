@@ -51,6 +51,8 @@ export interface LoopEntry {
   /** Controlled-source id where the loop is broken. */
   key: string;
   nets: string[];
+  /** Member part names (refs), from the key source on. */
+  parts: string[];
 }
 
 /** A result pinned as "A" for compare mode; the live result is "B". */
@@ -87,6 +89,8 @@ export interface LiveState {
   pinnedA: PinnedResult | null;
   /** A failure of the worker itself (not of the circuit), else null. */
   failure: string | null;
+  /** Where runs execute: 'worker', or 'same-thread' (no Worker, or it could not start). */
+  runner: 'worker' | 'same-thread';
 }
 
 export interface SubmitOptions {

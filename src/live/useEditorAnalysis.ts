@@ -46,6 +46,16 @@ export function useEditorAnalysis(editor: Editor, given?: LiveStore) {
     actions.hoverNet(pointerNet);
   }, [actions, pointerNet]);
 
+  // One wire selected on the canvas selects its net.
+  const selection = editor.selection;
+  const picked = selection.size === 1 ? wires.get([...selection][0]) ?? null : null;
+  const lastPicked = useRef<string | null>(null);
+  useEffect(() => {
+    if (picked === lastPicked.current) return;
+    lastPicked.current = picked;
+    actions.selectNet(picked);
+  }, [actions, picked]);
+
   const s = state.settings;
   const ann = useMemo(
     () => liveAnnotations(state),

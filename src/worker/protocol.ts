@@ -32,6 +32,6 @@ export interface AnalysisRunner {
   /** Receive every message of every run (the store filters by run id). */
   onMessage(fn: (msg: RunMessage) => void): void;
   dispose(): void;
-  /** 'worker' or 'same-thread'. */
+  /** 'worker' or 'same-thread' (a worker runner that fell back reports 'same-thread'). */
   readonly kind: 'worker' | 'same-thread';
 }

@@ -31,7 +31,7 @@ export function createWorkerRunner(): AnalysisRunner {
     if (last) fallback.run(last);
   };
   return {
-    kind: 'worker',
+    get kind() { return fallback ? 'same-thread' as const : 'worker' as const; },
     run(req) {
       last = req;
       if (fallback) fallback.run(req);

@@ -55,6 +55,8 @@ browserSuite('analysis overlay in Chromium', () => {
     const onBadges = info.badges.flatMap((a, i) => info.badges.slice(i + 1).filter((b) => overlapArea(a, b) > 1).map((b) => `${a.net} on ${b.net}`));
     console.log(`badges ${info.badges.length}, collapsed ${info.dots}, scale ${cam.scale.toFixed(2)}, font ${info.badges[0]?.font}px`, onSymbols, onBadges);
     expect(info.badges.length + info.dots).toBeGreaterThan(8);
+    // the runs went to the Web Worker, not the same-thread fallback
+    expect(await page.getAttribute('[data-testid="analysis-overlay"]', 'data-runner')).toBe('worker');
     // readable: text at least 8 px (common practice for dense annotation)
     for (const b of info.badges) expect(b.font).toBeGreaterThanOrEqual(8);
     expect(onSymbols).toEqual([]);
@@ -107,6 +109,22 @@ browserSuite('analysis overlay in Chromium', () => {
     await page.waitForTimeout(200);
     await page.screenshot({ path: artifactPath('overlay-30-tau.png') });
     expect(await page.getByTestId('analysis-legend').textContent()).toMatch(/time constant/);
+    expect(errors).toEqual([]);
+  });
+
+  it('a structural error shows its message at the fault instead of the marks', async () => {
+    const broken = JSON.parse(text);
+    // leave Rf2's lower pin open: its ground symbol removed
+    const gnd = Object.values(doc.parts).filter((p) => p.kind === 'ground')
+      .find((g) => { const r = doc.parts['part:rf2' as never] ?? Object.values(doc.parts).find((p) => p.ref === 'Rf2')!; return Math.abs(g.x - r.x) <= 10 && g.y > r.y; });
+    expect(gnd).toBeTruthy();
+    delete broken.parts[gnd!.id];
+    await page.setInputFiles('[data-testid="file-input"]', { name: 'broken.json', mimeType: 'application/json', buffer: Buffer.from(JSON.stringify(broken)) });
+    await page.waitForSelector('[data-testid="analysis-faults"] .ao-fault', { timeout: 30000 });
+    await page.waitForTimeout(200);
+    await page.screenshot({ path: artifactPath('overlay-30-fault.png') });
+    expect(await page.locator('[data-testid="analysis-overlay"]').count()).toBe(0);
+    expect(await page.locator('.ao-fault').first().textContent()).toMatch(/\w{4}/);
     expect(errors).toEqual([]);
   });
 });

@@ -8,6 +8,7 @@ import { documentToNetlist } from '../../src/schematic/toNetlist';
 import { loadDrawing } from '../../src/schematic/file';
 import { placedBounds } from '../../src/schematic/symbols';
 import type { DrawingDocument } from '../../src/schematic/document';
+import type { Badge } from '../../src/export/annotations';
 import { boxArea, layoutBadges } from '../../src/canvas/badgeLayout';
 import { formatCx, netsOfPole, parseFrequency, polesOfNet } from '../../src/canvas/overlayModel';
 import { commonSource } from '../schematic/build';
@@ -45,7 +46,7 @@ describe('badge layout', () => {
     const cs = commonSource();
     // anchor right next to M1's body: the up-right spot would land on the transistor
     const m1 = placedBounds(cs.parts['part:m1' as never]);
-    const badge = { net: 'x', lines: ['x: |Z| 1.00 kΩ', 'C 1.00 pF', 'τ 1.00 ns'], anchor: { x: m1.x - 4, y: m1.y + m1.height } };
+    const badge = { net: 'x', lines: ['x: |Z| 1.00 kΩ', 'C 1.00 pF', 'τ 1.00 ns'], anchor: { x: m1.x - 4, y: m1.y + m1.height } } as Badge;
     const [p] = layoutBadges(cs, [badge]);
     expect(boxArea(p.box, m1)).toBe(0);
     expect(p.crowded).toBe(false);
@@ -76,5 +77,20 @@ describe('overlay helpers', () => {
     expect(nets[0]).toBe(r.participation[0].nodes[0].node); // the largest share comes first
     for (const n of nets) expect(polesOfNet(r, n)).toContain(i);
     expect(netsOfPole(r, null)).toEqual([]);
+  });
+});
+
+describe('loop path', () => {
+  it('runs from net to net through the member part that joins them', async () => {
+    const { loopPathPoints } = await import('../../src/canvas/loopPath');
+    const doc = thirty();
+    const d = documentToNetlist(doc);
+    const a1 = Object.values(doc.parts).find((p) => p.ref === 'A1')!;
+    const m2 = Object.values(doc.parts).find((p) => p.ref === 'M2')!;
+    const centre = (p: typeof a1) => { const r = placedBounds(p); return { x: r.x + r.width / 2, y: r.y + r.height / 2 }; };
+    const pa = { x: 0, y: 0 }, pb = { x: 100, y: 0 };
+    // the regulation loop of the invented netlist: A1 senses d1 and drives gc; M2's gate gc moves d1
+    const pts = loopPathPoints(doc, d.netOfPin, ['d1', 'gc'], [pa, pb], ['A1', 'M2']);
+    expect(pts).toEqual([pa, centre(a1), pb, centre(m2), pa]);
   });
 });
