@@ -44,13 +44,13 @@ for (const ex of examples.length ? examples : ['two-stage-miller-unity', 'readou
   }
   await tab(page, 'Loops');
   await page.getByRole('switch').first().click();
-  await page.waitForFunction(() => window.store?.getState().stage === 2 && window.store.getState().settings.offLoopIds.length === 1, null, { timeout: 20000 });
+  await page.waitForFunction(() => (window.store?.getState().stage === 2 || window.store?.getState().failure) && window.store.getState().settings.offLoopIds.length === 1, null, { timeout: 20000 });
   await shot(page, `${short}-loop-off`);
   await tab(page, 'A/B');
   await page.getByRole('button', { name: 'Pin as A' }).click();
   await tab(page, 'Loops');
   await page.getByRole('switch', { name: /off$/ }).first().click();
-  await page.waitForFunction(() => window.store?.getState().stage === 2 && window.store.getState().settings.offLoopIds.length === 0, null, { timeout: 20000 });
+  await page.waitForFunction(() => (window.store?.getState().stage === 2 || window.store?.getState().failure) && window.store.getState().settings.offLoopIds.length === 0, null, { timeout: 20000 });
   await tab(page, 'A/B');
   await shot(page, `${short}-compare`);
   await tab(page, 'Plots');
