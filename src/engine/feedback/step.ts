@@ -103,7 +103,12 @@ export function stepResponse(sys: MnaSystem, opts: StepOptions = {}): StepRespon
   const settling = tolerances.map((tolerance) => ({ tolerance, seconds: settlingTime(ts, ys, yInf, tolerance) }));
   let overshoot = 0;
   const firstCross = ys.findIndex((v) => (v - yInf) * Math.sign(yInf || 1) >= 0);
-  if (firstCross >= 0) overshoot = Math.max(0, ...ys.slice(firstCross).map((v) => ((v - yInf) * Math.sign(yInf || 1)) / scale));
+  if (firstCross >= 0) {
+    // A plain loop: spreading a long waveform into Math.max overflows the call stack.
+    overshoot = 0;
+    const sign = Math.sign(yInf || 1);
+    for (let i = firstCross; i < ys.length; i++) overshoot = Math.max(overshoot, ((ys[i] - yInf) * sign) / scale);
+  }
   const thin = thinOut(ts, ys, opts.maxPoints ?? 4000);
   return {
     status, message: status === 'step-limit' ? `stopped after ${maxSteps} steps at t = ${t.toPrecision(3)} s` : undefined,
