@@ -1,7 +1,7 @@
 // Browser-test harness: builds the app once, serves it on localhost and drives Debian's Chromium
 // with playwright-core (never a downloaded browser). Where Chromium is missing the suites using
 // `browserSuite` report themselves skipped with the install hint.
-import { existsSync, mkdirSync, mkdtempSync } from 'node:fs';
+import { existsSync, mkdirSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -24,12 +24,13 @@ export function browserSuite(name: string, body: () => void): void {
 
 export interface Served { url: string; close(): Promise<void> }
 
-/** Build the app into a temporary folder and serve it with Vite's preview server on a free port. */
+/** Build the app once per test run (shared by every browser test file: vitest's forked workers
+ *  share the parent's pid, so the first one builds under a lock and the others wait), then serve it
+ *  with Vite's preview server on a free port. */
 export async function buildAndServe(): Promise<Served> {
-  const { build, preview } = await import('vite');
+  const { preview } = await import('vite');
   const configFile = join(ROOT, 'src', 'vite.config.ts');
-  const outDir = mkdtempSync(join(tmpdir(), 'polesketch-build-'));
-  await build({ configFile, logLevel: 'error', build: { outDir, emptyOutDir: true } });
+  const outDir = await sharedBuild(configFile);
   const server = await preview({
     configFile,
     logLevel: 'error',
@@ -38,6 +39,25 @@ export async function buildAndServe(): Promise<Served> {
   });
   const url = server.resolvedUrls?.local[0] ?? `http://127.0.0.1:${(server.httpServer.address() as { port: number }).port}/`;
   return { url, close: () => new Promise<void>((r) => server.httpServer.close(() => r())) };
+}
+
+async function sharedBuild(configFile: string): Promise<string> {
+  const outDir = join(tmpdir(), `polesketch-build-${process.ppid}`);
+  const done = join(outDir, '.built');
+  const lock = `${outDir}.lock`;
+  let mine = false;
+  try { mkdirSync(lock); mine = true; } catch { /* another worker builds */ }
+  if (mine) {
+    const { build } = await import('vite');
+    await build({ configFile, logLevel: 'error', build: { outDir, emptyOutDir: true } });
+    writeFileSync(done, new Date().toISOString());
+    return outDir;
+  }
+  for (let waited = 0; !existsSync(done); waited += 250) {
+    if (waited > 240_000) throw new Error(`timed out waiting for the shared build in ${outDir}`);
+    await new Promise((r) => setTimeout(r, 250));
+  }
+  return outDir;
 }
 
 // playwright gives every launch a fresh temporary profile (user-data dir).
