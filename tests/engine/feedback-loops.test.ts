@@ -8,10 +8,15 @@ describe('loop discovery', () => {
     const d = discoverLoops(sys);
     expect(d.loops.length).toBeGreaterThan(0);
     for (const l of d.loops) expect(l.kind).toBe('local');
+    // one part, one loop: gm and gmb both sense the source node
+    expect(d.loops.length).toBe(1);
     const gmLoop = d.loops.find((l) => l.id === 'M1.gm')!;
-    // self-loop of gm alone (gmb cut in the coupling graph): gm·(ro ∥ RB) — common practice
+    expect(gmLoop.parts).toEqual(['M1']);
+    expect(gmLoop.sources.map((m) => m.id)).toEqual(['M1.gm', 'M1.gmb']);
+    // the device's local loop with gm and gmb together: (gm + gmb)·(ro ∥ RB) — common practice
+    // (follower output resistance 1/(gm + gmb) ∥ ro ∥ RB, Razavi)
     const rpar = 1 / (1 / 50e3 + 1 / 20e3);
-    expect(gmLoop.cycleGainDc.re).toBeCloseTo(2e-3 * rpar, 8);
+    expect(gmLoop.cycleGainDc.re).toBeCloseTo((2e-3 + 4e-4) * rpar, 8);
     // Bode return ratio of gm with gmb present: gm / (1/ro + 1/RB + gmb) — common practice
     expect(gmLoop.returnRatioDc.value!.re).toBeCloseTo(2e-3 / (1 / 50e3 + 1 / 20e3 + 4e-4), 8);
     expect(gmLoop.nets).toEqual(['out']);

@@ -126,3 +126,33 @@ export function elementaryCycles(count: number, adj: number[][], maxCycles = 100
   }
   return { cycles, truncated };
 }
+
+/** Every elementary cycle of at most `maxLen` vertices (no self-loops), each starting at its smallest
+ *  vertex, by depth-limited search; stops after `maxCycles`. Johnson's search can spend its whole
+ *  budget on long cycles through the first vertex of a dense graph; the short loops are the ones a
+ *  designer reads first, so they are found this way before it. */
+export function shortCycles(count: number, adj: number[][], maxLen: number, maxCycles = 10000): CycleEnumeration {
+  const cycles: number[][] = [];
+  const path: number[] = [];
+  const onPath = new Uint8Array(count);
+  let truncated = false;
+  const walk = (s: number, v: number): void => {
+    for (const w of adj[v]) {
+      if (truncated) return;
+      if (w === s && path.length >= 2) {
+        if (cycles.length >= maxCycles) { truncated = true; return; }
+        cycles.push(path.slice());
+      } else if (w > s && !onPath[w] && path.length < maxLen) {
+        path.push(w); onPath[w] = 1;
+        walk(s, w);
+        path.pop(); onPath[w] = 0;
+      }
+    }
+  };
+  for (let s = 0; s < count && !truncated; s++) {
+    path.push(s); onPath[s] = 1;
+    walk(s, s);
+    path.pop(); onPath[s] = 0;
+  }
+  return { cycles, truncated };
+}

@@ -1,17 +1,20 @@
-// Loop discovery: elementary cycles (Johnson 1975) of the solved coupling graph (coupling.ts),
-// counted when the cycle's gain exceeds a threshold at DC or anywhere in the sweep.
+// Loop discovery at part level: the controlled sources of one part are one vertex (partGraph.ts),
+// loops are a part's local loop or elementary cycles (Johnson 1975) of the part graph, counted when
+// the loop's gain exceeds a threshold at DC or anywhere in the sweep (partCycles.ts). The
+// source-level coupling graph stays available as `graph` for experts.
 //
-// Which gain is reported: the cycle product −∏d is that one loop's transmission in the signal-flow
-// graph of direct couplings (Mason 1953), exact for the loop alone but not measurable on a bench when
-// loops share parts. The key source's Bode return ratio T (all other sources present) is what a
-// designer measures by breaking the loop at the key, and it is what sets stability and the Blackman
-// impedance factors; it is the headline figure. The cycle product is kept as the secondary figure and
-// is what decides whether the cycle counts and over which band it is active, since it is specific
-// to the cycle even when several cycles share the key.
+// Which gain is reported: the part-cycle gain (partGraph.ts) is that one loop's transmission in the
+// signal-flow graph of direct couplings (Mason 1953), exact for the loop alone but not measurable on
+// a bench when loops share parts. The key source's Bode return ratio T (all other sources present)
+// is what a designer measures by breaking the loop at the key, and it is what sets stability and the
+// Blackman impedance factors; it is the headline figure. The cycle gain is kept as the secondary
+// figure and decides whether the loop counts and over which band it is active.
 import type { Cx, MnaSystem } from '../types';
-import { couplingGraph, cycleGain } from './coupling';
+import { couplingGraph } from './coupling';
 import type { CouplingGraph } from './coupling';
-import { elementaryCycles, stronglyConnected } from './cycles';
+import { stronglyConnected } from './cycles';
+import { EDGE_FLOOR, findPartCycles } from './partCycles';
+import type { PartCycle } from './partCycles';
 import { logSpace, nodeLabel } from './pencil';
 import { returnRatios } from './returnRatio';
 import type { ReturnRatioPoint, ReturnRatioSweep } from './returnRatio';
@@ -28,10 +31,18 @@ export interface LoopBand {
 export interface Loop {
   /** Stable key: member ids from the key source, joined by '>'. */
   id: string;
-  /** Short human label, e.g. "A1 → M2". */
+  /** Short human label: the parts in order, e.g. "A1 → M2". */
   label: string;
   kind: 'local' | 'global';
+  /** One source per part, in loop order from the key's part: the one that stands for the part
+   *  (amplifier gain first, then gm). */
   members: LoopMember[];
+  /** The parts in loop order, from the key's part. */
+  parts: string[];
+  /** Every source of those parts the loop runs through, part by part (e.g. M2.gm and M2.gmb). */
+  sources: LoopMember[];
+  /** Part paths folded into this loop as parallel paths or detours of it ("A1>M2>M3"). */
+  variants: string[];
   /** Nets the loop passes through, in order (closing back to the first). */
   nets: string[];
   /** Source at which the loop is broken by default (switching the loop off zeroes it). */
@@ -40,12 +51,12 @@ export interface Loop {
   returnRatioDc: ReturnRatioPoint;
   /** Key source's return ratio over the sweep (fHz of the discovery). */
   returnRatio: ReturnRatioSweep;
-  /** Cycle product −∏d at DC (secondary figure). */
+  /** Part-cycle gain at DC (secondary figure; −∏d for single-source parts). */
   cycleGainDc: Cx;
-  /** Largest |cycle product| over DC and the sweep, and where. */
+  /** Largest |cycle gain| over DC and the sweep, and where. */
   peakCycleGain: number;
   peakAtHz: number;
-  /** Band where |cycle product| exceeds the threshold; null if never. */
+  /** Band where |cycle gain| exceeds the threshold; null if never. */
   band: LoopBand | null;
 }
 
@@ -59,7 +70,10 @@ export interface LoopDiscovery {
   fHz: number[];
   /** Groups of sources that are strongly connected (Tarjan 1972), as id lists, size ≥ 2 or self-coupled. */
   groups: string[][];
+  /** Source-level coupling graph (per controlled source), for experts. */
   graph: CouplingGraph;
+  /** Part names, the vertices of the part-level graph. */
+  parts: string[];
   notes: string[];
 }
 
@@ -70,10 +84,7 @@ export interface LoopOptions {
   scale?: Record<string, number>;
 }
 
-const EDGE_FLOOR = 1e-9;
 const ROLE_PREFERENCE = ['A0', 'gain', 'gm', 'gmb'];
-/** Roles of the chain inside an amplifier macro (stamps/amplifier.ts). */
-const MACRO_ROLES = ['A0', 'stage2', 'out'];
 
 export function discoverLoops(sys: MnaSystem, opts: LoopOptions = {}): LoopDiscovery {
   const threshold = opts.threshold ?? 0.01;
@@ -89,69 +100,72 @@ export function discoverLoops(sys: MnaSystem, opts: LoopOptions = {}): LoopDisco
   for (let i = 0; i < N; i++) {
     const row: number[] = [];
     for (let j = 0; j < N; j++) if (graph.peak[i * N + j] > EDGE_FLOOR) row.push(j);
-    row.sort((a, b) => graph.peak[i * N + b] - graph.peak[i * N + a]);
     adj.push(row);
   }
   const { components } = stronglyConnected(N, adj);
   const groups = components
     .filter((c) => c.length > 1 || adj[c[0]].includes(c[0]))
     .map((c) => c.map((k) => graph.stamps[k].id));
-  const budget = Math.max(2000, cap * 40);
-  const found = elementaryCycles(N, adj, budget);
+  const found = findPartCycles(graph, threshold, Math.max(256, cap * 4), (v) => !nodeLabel(sys, v).includes('#'), (v) => rolePreference(graph.stamps[v].role));
+  const pg = found.partGraph;
   let truncated = found.truncated;
   const fz = graph.fHz;
-  const counted = found.cycles
-    .map((cycle) => {
-      const mags = fz.map((_, fi) => { const g = cycleGain(graph, cycle, fi); return Math.hypot(g.re, g.im); });
-      let peakIdx = 0;
-      for (let k = 1; k < mags.length; k++) if (mags[k] > mags[peakIdx]) peakIdx = k;
-      return { cycle, mags, peakIdx };
-    })
-    .filter((c) => c.mags[c.peakIdx] > threshold)
-    .sort((a, b) => b.mags[b.peakIdx] - a.mags[a.peakIdx]);
-  if (counted.length > cap) truncated = true;
+  const counted = [...found.cycles].sort((a, b) => b.mags[b.peakIdx] - a.mags[a.peakIdx]);
   const kept = counted.slice(0, cap);
-  if (truncated) notes.push(`more loops than listed: the ${kept.length} largest are kept (cap ${cap})`);
+  if (counted.length > cap) {
+    truncated = true;
+    notes.push(`more loops than listed: the ${kept.length} largest are kept (cap ${cap})`);
+  } else if (found.truncated) {
+    notes.push('the search for long loops (more than three parts) stopped early: long loops may be missing');
+  }
 
-  // how many kept cycles each source belongs to: the key is preferably one that breaks few others
+  // how many kept loops each source runs through: the key is preferably one that breaks few others
   const uses = new Int32Array(N);
-  for (const c of kept) for (const v of c.cycle) uses[v]++;
-  const keyOf = (cycle: number[]) => [...cycle].sort((a, b) => {
+  for (const c of kept) for (const list of c.sources) for (const v of list) uses[v]++;
+  const byPreference = (a: number, b: number) => {
     const ra = rolePreference(graph.stamps[a].role);
     const rb = rolePreference(graph.stamps[b].role);
     if (ra !== rb) return ra - rb;
     if (uses[a] !== uses[b]) return uses[a] - uses[b];
     return a - b;
-  })[0];
-
-  const keys = [...new Set(kept.map((c) => graph.stamps[keyOf(c.cycle)].id))];
+  };
+  // one source stands for each part: the preferred one among those the loop runs through
+  const repsOf = (c: PartCycle) => c.sources.map((list) => [...list].sort(byPreference)[0]);
+  const keyPos = (c: PartCycle) => { const r = repsOf(c); return r.indexOf([...r].sort(byPreference)[0]); };
+  const keys = [...new Set(kept.map((c) => graph.stamps[repsOf(c)[keyPos(c)]].id))];
   const rr = new Map(returnRatios(sys, { freqsHz: fz.slice(1), scale: opts.scale, ids: keys }).map((r) => [r.id, r]));
-  const loops: Loop[] = kept.map(({ cycle, mags, peakIdx }) => {
-    const k = keyOf(cycle);
-    const start = cycle.indexOf(k);
-    const ordered = [...cycle.slice(start), ...cycle.slice(0, start)];
-    const members = ordered.map((v) => ({ id: graph.stamps[v].id, part: graph.stamps[v].part, role: graph.stamps[v].role }));
-    const parts = [...new Set(members.map((m) => m.part))];
-    const key = graph.stamps[k].id;
+  const member = (v: number): LoopMember => ({ id: graph.stamps[v].id, part: graph.stamps[v].part, role: graph.stamps[v].role });
+  const rotate = <T>(xs: T[], k: number) => [...xs.slice(k), ...xs.slice(0, k)];
+  const idOf = (c: PartCycle) => { const r = repsOf(c); return rotate(r, keyPos(c)).map((v) => graph.stamps[v].id).join('>'); };
+  const loops: Loop[] = kept.map((c) => {
+    const start = keyPos(c);
+    const reps = rotate(repsOf(c), start);
+    const members = reps.map(member);
+    const parts = rotate(c.parts, start).map((p) => pg.parts[p]);
+    const key = members[0].id;
     const sweepRR = rr.get(key)!;
+    const pairs = c.parts.length === 1 ? c.pairs : rotate(c.pairs, start);
     return {
-      id: members.map((m) => m.id).join('>'),
+      id: idOf(c),
       label: parts.join(' → '),
-      // local: confined to one device's own sources (degeneration, diode connection, follower);
-      // a loop around an amplifier macro always closes outside it, so it is global
-      kind: parts.length === 1 && !members.some((m) => MACRO_ROLES.includes(m.role)) ? 'local' as const : 'global' as const,
+      // local: confined to one device's own sources (degeneration, diode connection, follower,
+      // Miller capacitance around one stage); a loop around an amplifier macro closes outside it
+      kind: c.parts.length === 1 && !pg.macro[c.parts[0]] ? 'local' as const : 'global' as const,
       members,
-      nets: loopNets(sys, graph, ordered),
+      parts,
+      sources: rotate(c.sources, start).flat().map(member),
+      variants: c.folded.map((ps) => ps.map((p) => pg.parts[p]).join('>')),
+      nets: loopNets(sys, graph, pairs),
       key,
       returnRatioDc: sweepRR.dc,
       returnRatio: sweepRR,
-      cycleGainDc: cycleGain(graph, cycle, 0),
-      peakCycleGain: mags[peakIdx],
-      peakAtHz: fz[peakIdx],
-      band: bandOf(fz, mags, threshold),
+      cycleGainDc: c.dc,
+      peakCycleGain: c.mags[c.peakIdx],
+      peakAtHz: fz[c.peakIdx],
+      band: bandOf(fz, c.mags, threshold),
     };
   });
-  return { loops, truncated, threshold, cap, fHz: fz, groups, graph, notes };
+  return { loops, truncated, threshold, cap, fHz: fz, groups, graph, parts: pg.parts, notes };
 }
 
 function rolePreference(role: string): number {
@@ -159,12 +173,10 @@ function rolePreference(role: string): number {
   return i < 0 ? ROLE_PREFERENCE.length : i;
 }
 
-function loopNets(sys: MnaSystem, g: CouplingGraph, ordered: number[]): string[] {
+function loopNets(sys: MnaSystem, g: CouplingGraph, pairs: [number, number][]): string[] {
   const N = g.stamps.length;
   const seq: number[] = [];
-  for (let k = 0; k < ordered.length; k++) {
-    const a = ordered[k];
-    const b = ordered[(k + 1) % ordered.length];
+  for (const [a, b] of pairs) {
     for (const v of [g.outNode[a * N + b], g.ctlNode[a * N + b]]) {
       if (v >= 0 && seq[seq.length - 1] !== v) seq.push(v);
     }

@@ -1,0 +1,187 @@
+// Loops at part level: local loops (a part's own return difference) and elementary cycles (Johnson
+// 1975) of the part graph (partGraph.ts), each with its gain over the sweep, the sources it runs
+// through and the source pairs that carry it from part to part (for drawing its path).
+//
+// Near-duplicates a designer would read as one loop are folded into it (listed as its variants):
+//  - a part's own loop that closes through the same nets as a larger loop through that part, when the
+//    part is an amplifier macro, or both loops run through the same nets and break at the same source
+//    (e.g. a booster's output
+//    coupling back to its input through the cascode's gate–source capacitance: the booster loop
+//    itself, by a parallel path; a first stage's output reaching its own input through a Miller
+//    capacitor in unity feedback). A device's own degeneration or Miller loop is kept: it breaks at
+//    that device;
+//  - a cycle that only adds a detour through parts which already form a listed loop among
+//    themselves (a chain through a gain-boosted cascode may pass the device directly or through its
+//    booster: the global loop is one loop, the booster loop another).
+import type { CouplingGraph } from './coupling';
+import { elementaryCycles, shortCycles } from './cycles';
+import { buildPartGraph, localGain, partClosures, partCycleGain } from './partGraph';
+import type { PartGraph } from './partGraph';
+
+export const EDGE_FLOOR = 1e-9;
+/** Cycles of up to this many parts are all enumerated. */
+const SHORT_LEN = 3;
+const SHORT_BUDGET = 20000;
+
+export interface PartCycle {
+  /** Part indices in order (closing last → first); one part for a local loop. */
+  parts: number[];
+  /** Per part: the source vertices of that part the loop runs through. */
+  sources: number[][];
+  /** Source pairs (from, to) carrying the loop, in order; nets are read from these. */
+  pairs: [number, number][];
+  /** |gain| per sweep frequency (index 0 = DC), and the complex gain at DC. */
+  mags: number[];
+  dc: { re: number; im: number };
+  peakIdx: number;
+  /** Part cycles folded into this one (as part index lists). */
+  folded: number[][];
+}
+
+export interface PartCycleResult {
+  partGraph: PartGraph;
+  cycles: PartCycle[];
+  truncated: boolean;
+}
+
+/** `visible(node)`: the node can be drawn (not private to a part macro); only those nets are compared
+ *  when folding a macro's own loop into a larger one. */
+export function findPartCycles(
+  g: CouplingGraph, threshold: number, budget: number,
+  visible: (node: number) => boolean = () => true, rank: (source: number) => number = () => 0,
+): PartCycleResult {
+  const pg = buildPartGraph(g);
+  const cl = partClosures(g, pg);
+  const P = pg.parts.length;
+  const N = g.stamps.length;
+  const fz = g.fHz;
+  const peakOf = (mags: number[]) => mags.reduce((best, m, k) => (m > mags[best] ? k : best), 0);
+
+  const locals: PartCycle[] = [];
+  for (let p = 0; p < P; p++) {
+    const gains = fz.map((_, fi) => localGain(cl, p, fi));
+    const mags = gains.map((x) => Math.hypot(x.re, x.im));
+    const peakIdx = peakOf(mags);
+    if (!(mags[peakIdx] > threshold)) continue;
+    const inner = internalCycle(g, pg.sourcesOf[p]);
+    if (!inner) continue;
+    locals.push({ parts: [p], sources: [inner.on], pairs: inner.pairs, mags, dc: gains[0], peakIdx, folded: [] });
+  }
+
+  const adj: number[][] = [];
+  for (let a = 0; a < P; a++) {
+    const row: number[] = [];
+    for (let b = 0; b < P; b++) if (a !== b && pg.peak[a * P + b] > EDGE_FLOOR) row.push(b);
+    row.sort((x, y) => pg.peak[a * P + y] - pg.peak[a * P + x]);
+    adj.push(row);
+  }
+  // short cycles exhaustively, then Johnson's enumeration for longer ones within the budget
+  const short = shortCycles(P, adj, SHORT_LEN, SHORT_BUDGET);
+  const seen = new Set(short.cycles.map((c) => c.join(',')));
+  const long = elementaryCycles(P, adj, budget);
+  const all = [...short.cycles, ...long.cycles.filter((c) => !seen.has(c.join(',')))];
+  const found = { cycles: all, truncated: short.truncated || long.truncated };
+  // an upper bound over all frequencies, from the peaks, spares evaluating hopeless cycles:
+  // ‖L‖ ≤ ∏ ‖D_PQ‖·‖H_Q‖ (Frobenius), |det(I − L) − 1| ≤ (1 + ‖L‖)^m − 1 for m × m L
+  const hNorm = pg.sourcesOf.map((_, q) => Math.max(...cl.h.map((row) => frobenius(row[q]))));
+  const size = pg.sourcesOf.map((list) => list.length);
+  const bound = (cyc: number[]) => {
+    let b = 1;
+    for (let k = 0; k < cyc.length; k++) {
+      const a = cyc[k], q = cyc[(k + 1) % cyc.length];
+      b *= pg.peak[a * P + q] * Math.sqrt(size[a] * size[q]) * hNorm[q];
+    }
+    return Math.pow(1 + b, size[cyc[0]]) - 1;
+  };
+  const multi: PartCycle[] = [];
+  for (const cyc of found.cycles) {
+    if (!(bound(cyc) > threshold)) continue;
+    const gains = fz.map((_, fi) => partCycleGain(g, pg, cl, cyc, fi));
+    const mags = gains.map((x) => (x ? Math.hypot(x.re, x.im) : 0));
+    const peakIdx = peakOf(mags);
+    if (!(mags[peakIdx] > threshold)) continue;
+    const { sources, pairs } = cyclePath(g, pg, cyc);
+    multi.push({ parts: cyc, sources, pairs, mags, dc: gains[0] ?? { re: 0, im: 0 }, peakIdx, folded: [] });
+  }
+
+  // detours: shortest first, so the loops a longer cycle is made of are decided before it
+  multi.sort((a, b) => a.parts.length - b.parts.length || b.mags[b.peakIdx] - a.mags[a.peakIdx]);
+  const keptMulti: PartCycle[] = [];
+  for (const c of multi) {
+    const set = new Set(c.parts);
+    const base = keptMulti.find((k) => k.parts.length < c.parts.length && k.parts.every((p) => set.has(p)) &&
+      c.parts.filter((p) => !k.parts.includes(p)).every((q) =>
+        keptMulti.some((o) => o !== k && o.parts.includes(q) && o.parts.every((p) => set.has(p)))));
+    if (base) base.folded.push(c.parts);
+    else keptMulti.push(c);
+  }
+  // a macro's own loop through the same nets as a larger loop through it
+  const netsOf = (c: PartCycle) => new Set(c.pairs.flatMap(([i, j]) => [g.outNode[i * N + j], g.ctlNode[i * N + j]]).filter((v) => v >= 0 && visible(v)));
+  const keptLocal: PartCycle[] = [];
+  for (const c of locals) {
+    const p = c.parts[0];
+    const mine = netsOf(c);
+    const host = keptMulti.find((k) => {
+      if (!k.parts.includes(p)) return false;
+      const theirs = netsOf(k);
+      if (![...mine].every((v) => theirs.has(v))) return false;
+      return pg.macro[p] || (theirs.size === mine.size && keySource(k, rank) === keySource(c, rank));
+    });
+    if (host) {
+      host.folded.push(c.parts);
+      host.mags = host.mags.map((m, k) => Math.max(m, c.mags[k]));
+      host.peakIdx = peakOf(host.mags);
+    } else keptLocal.push(c);
+  }
+  return { partGraph: pg, cycles: [...keptMulti, ...keptLocal], truncated: found.truncated };
+}
+
+/** The source a loop would be broken at by role alone (lowest rank, then lowest index). */
+function keySource(c: PartCycle, rank: (source: number) => number): number {
+  return c.sources.flat().reduce((a, b) => (rank(b) < rank(a) || (rank(b) === rank(a) && b < a) ? b : a));
+}
+
+/** Sources of a part that lie on a cycle among themselves (Tarjan-free: tiny graphs, by reachability)
+ *  and the strongest such source cycle, as pairs. */
+function internalCycle(g: CouplingGraph, list: number[]): { on: number[]; pairs: [number, number][] } | null {
+  const N = g.stamps.length;
+  const adj = list.map((i) => list.map((j, b) => (g.peak[i * N + j] > EDGE_FLOOR ? b : -1)).filter((b) => b >= 0));
+  const cycles = elementaryCycles(list.length, adj, 200).cycles;
+  if (!cycles.length) return null;
+  const strength = (c: number[]) => c.reduce((s, v, k) => s * g.peak[list[v] * N + list[c[(k + 1) % c.length]]], 1);
+  const best = cycles.reduce((a, b) => (strength(b) > strength(a) ? b : a));
+  const on = [...new Set(cycles.flat())].sort((a, b) => a - b).map((b) => list[b]);
+  return { on, pairs: best.map((v, k) => [list[v], list[best[(k + 1) % best.length]]] as [number, number]) };
+}
+
+/** For each part edge of the cycle, the strongest source pair; and each part's sources on the path. */
+function cyclePath(g: CouplingGraph, pg: PartGraph, cyc: number[]): { sources: number[][]; pairs: [number, number][] } {
+  const N = g.stamps.length;
+  const pairs: [number, number][] = [];
+  const into: Set<number>[] = cyc.map(() => new Set<number>());
+  const outOf: Set<number>[] = cyc.map(() => new Set<number>());
+  for (let k = 0; k < cyc.length; k++) {
+    const kn = (k + 1) % cyc.length;
+    let best: [number, number] = [pg.sourcesOf[cyc[k]][0], pg.sourcesOf[cyc[kn]][0]];
+    let bestPeak = -1;
+    for (const i of pg.sourcesOf[cyc[k]]) {
+      for (const j of pg.sourcesOf[cyc[kn]]) {
+        const v = g.peak[i * N + j];
+        if (v <= EDGE_FLOOR) continue;
+        outOf[k].add(i);
+        into[kn].add(j);
+        if (v > bestPeak) { bestPeak = v; best = [i, j]; }
+      }
+    }
+    pairs.push(best);
+  }
+  const sources = cyc.map((_, k) => [...new Set([...into[k], ...outOf[k]])].sort((a, b) => a - b));
+  return { sources, pairs };
+}
+
+function frobenius(m: { re: Float64Array; im: Float64Array } | null): number {
+  if (!m) return Infinity;
+  let s = 0;
+  for (let i = 0; i < m.re.length; i++) s += m.re[i] * m.re[i] + m.im[i] * m.im[i];
+  return Math.sqrt(s);
+}
