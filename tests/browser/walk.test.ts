@@ -1,0 +1,149 @@
+// A new user's walk through the built app in real Chromium, one build and one page for all steps
+// (the `it`s run in order and share the page): open on the built-in example, place and wire a
+// resistor and a capacitor, switch the cascode's error-amplifier loop off, compare A/B, and
+// reload to find the drawing restored. Screenshots go to tests/artifacts/walk-*.png.
+// Waits are on conditions (a badge or table cell changing), never on fixed sleeps.
+import { afterAll, beforeAll, expect, it } from 'vitest';
+import type { Browser, Page } from 'playwright-core';
+import { artifactPath, browserSuite, buildAndServe, launchBrowser, type Served } from './harness';
+import { AUTOSAVE_KEY, loadDrawing } from '../../src/schematic/file';
+import { placedPins } from '../../src/schematic/symbols';
+import type { DrawingDocument, PartRecord } from '../../src/schematic/document';
+import { parseSi } from '../../src/engine/units';
+
+type Pt = { x: number; y: number };
+
+/** First figure with the given unit in a badge or cell text, e.g. "|Z| 86.2 kΩ" → 86200. */
+function figure(text: string, unit: string): number {
+  const m = new RegExp(`(-?[\\d.]+(?:e-?\\d+)?)\\s*([fpnuµmkMGT]?)${unit}`).exec(text);
+  const v = m ? parseSi(m[1] + m[2]) : null;
+  return v && v.ok ? v.value : NaN;
+}
+
+browserSuite('walk-through of the main job in Chromium', () => {
+  let served: Served;
+  let browser: Browser;
+  let page: Page;
+  const errors: string[] = [];
+  const shot = (name: string) => page.screenshot({ path: artifactPath(`walk-${name}.png`) });
+
+  beforeAll(async () => {
+    served = await buildAndServe();
+    ({ browser, page } = await launchBrowser());
+    page.on('pageerror', (e) => errors.push(String(e)));
+    await page.goto(served.url);
+    await page.waitForSelector('canvas', { timeout: 20000 });
+  }, 120000);
+  afterAll(async () => {
+    await browser?.close();
+    await served?.close();
+  });
+
+  /** The drawing as the app autosaved it (the app's own state, written 400 ms after an edit). */
+  async function savedDoc(): Promise<DrawingDocument> {
+    const text = await page.evaluate((k) => localStorage.getItem(k), AUTOSAVE_KEY);
+    expect(text, 'autosaved drawing in localStorage').toBeTruthy();
+    const r = loadDrawing(text!);
+    if (!r.ok) throw new Error(`autosave not readable: ${r.reason}`);
+    return r.doc;
+  }
+
+  // Camera as the overlay reports it (scale, x, y); read while the overlay shows (a half-wired
+  // drawing shows fault messages instead) and kept until the view is zoomed or fitted again.
+  let cam = [1, 0, 0];
+  async function readCamera(): Promise<void> {
+    cam = (await page.getAttribute('[data-testid="analysis-overlay"]', 'data-camera'))!.split(',').map(Number);
+  }
+  /** Page coordinates of a world point, from the camera and the sheet's box. */
+  async function toPage(p: Pt): Promise<Pt> {
+    const box = (await page.locator('[data-testid="sheet"]').boundingBox())!;
+    const s = { x: box.x + p.x * cam[0] + cam[1], y: box.y + p.y * cam[0] + cam[2] };
+    expect(s.x > box.x && s.x < box.x + box.width && s.y > box.y && s.y < box.y + box.height, `world (${p.x},${p.y}) on screen`).toBe(true);
+    return s;
+  }
+
+  const idle = () => page.waitForFunction(() => !document.querySelector('.ao-busy') && !document.querySelector('.rp-busy'), undefined, { timeout: 30000 });
+  const badgeText = (net: string) => page.locator(`[data-testid="badge-${net}"]`).innerText();
+  const nodeZ = (net: string) => page.locator(`[data-testid="node-row"][data-node="${net}"] [data-testid="node-z"]`).innerText();
+  /** Wait until a text read by `read` differs from `before`; return the new text. */
+  async function changed(read: () => Promise<string>, before: string, what: string): Promise<string> {
+    for (let i = 0; i < 300; i++) {
+      const now = await read().catch(() => before);
+      if (now !== before) return now;
+      await page.waitForFunction(() => new Promise((r) => requestAnimationFrame(() => r(true))));
+    }
+    throw new Error(`${what} did not change from "${before}"`);
+  }
+
+  async function placeAt(kind: string, at: Pt): Promise<void> {
+    await page.getByRole('button', { name: `Place ${kind}` }).click();
+    const s = await toPage(at);
+    await page.mouse.move(s.x - 5, s.y - 5);
+    await page.mouse.move(s.x, s.y);
+    await page.mouse.click(s.x, s.y);
+    await page.keyboard.press('Escape');
+  }
+
+  async function wire(a: Pt, b: Pt): Promise<void> {
+    await page.getByRole('button', { name: 'Wire', exact: true }).click();
+    const sa = await toPage(a), sb = await toPage(b);
+    await page.mouse.click(sa.x, sa.y);
+    await page.mouse.move(sb.x, sb.y, { steps: 4 });
+    await page.mouse.click(sb.x, sb.y);
+    await page.keyboard.press('Escape');
+  }
+
+  const pin = (p: PartRecord, name: string) => placedPins(p).find((q) => q.name === name)!;
+
+  it('opens on the built-in example with a badge on each node', async () => {
+    await page.waitForSelector('[data-testid="analysis-overlay"] .ao-badge', { timeout: 30000 });
+    await idle();
+    await shot('01-example');
+    const doc = await savedDoc();
+    expect(await page.locator('.doc-title').innerText()).toContain(doc.title!);
+    expect(Object.keys(doc.parts).length).toBeGreaterThan(5);
+    expect(await page.locator('[data-testid="badge-out"]').count()).toBe(1);
+    expect(errors).toEqual([]);
+  });
+
+  it('places a resistor and a capacitor, wires them to the output node, and the node badge changes', async () => {
+    await readCamera();
+    const fitted = cam[0];
+    await page.locator('.sheet-zoom').getByTitle('Zoom out').click();
+    await page.waitForFunction((s) => Number(document.querySelector('[data-testid="analysis-overlay"]')?.getAttribute('data-camera')?.split(',')[0]) < s, fitted);
+    await readCamera();
+    const before = await badgeText('out');
+    const start = await savedDoc();
+    const cload = Object.values(start.parts).find((p) => p.ref === 'Cload')!;
+    const outPin = pin(cload, 'p'); // Cload's top pin is on net "out" in this example
+    // R and C side by side below the drawing, joined at their top and bottom pins, a ground
+    // below the resistor and a wire up to the output node.
+    await placeAt('Resistor', { x: 240, y: 200 });
+    await placeAt('Capacitor', { x: 280, y: 200 });
+    await placeAt('Ground', { x: 240, y: 260 });
+    const n0 = Object.keys(start.parts).length;
+    await page.waitForFunction(([k, n]) => Object.keys(JSON.parse(localStorage.getItem(k as string) ?? '{}').parts ?? {}).length === n, [AUTOSAVE_KEY, n0 + 3] as const);
+    const placed = await savedDoc();
+    const fresh = Object.values(placed.parts).filter((p) => !start.parts[p.id]);
+    const r = fresh.find((p) => p.kind === 'resistor'), c = fresh.find((p) => p.kind === 'capacitor');
+    expect(fresh.map((p) => p.kind).sort()).toEqual(['capacitor', 'ground', 'resistor']);
+    await wire(pin(r!, 'p'), pin(c!, 'p'));
+    await wire(pin(r!, 'n'), pin(c!, 'n'));
+    const g = fresh.find((p) => p.kind === 'ground')!;
+    await wire(pin(r!, 'n'), pin(g, 'g'));
+    await wire(pin(r!, 'p'), { x: outPin.x + 30, y: outPin.y });
+    const after = await changed(() => badgeText('out'), before, 'badge of node out');
+    await idle();
+    await shot('02-rc-wired');
+    const doc = await savedDoc();
+    expect(Object.keys(doc.wires).length).toBe(Object.keys(start.wires).length + 4);
+    console.log(`badge out before: ${JSON.stringify(before)} after: ${JSON.stringify(after)}`);
+    // The new parts carry their defaults (10 kΩ, 1 pF, symbols/*.json). In shunt from out to
+    // ground: |Z| becomes Z ∥ 10 kΩ and the node capacitance grows by 1 pF (Ohm's law and
+    // parallel capacitors, common practice); badges show 3 digits, hence the 1 % margin.
+    const zBefore = figure(before, 'Ω'), zAfter = figure(after, 'Ω');
+    expect(zAfter / (1 / (1 / zBefore + 1 / 10e3)) - 1).toBeCloseTo(0, 2);
+    expect(Math.abs(figure(after, 'F') - figure(before, 'F') - 1e-12)).toBeLessThan(0.02e-12);
+    expect(errors).toEqual([]);
+  });
+});
