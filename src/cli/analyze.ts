@@ -86,7 +86,7 @@ function printText(file: string, title: string | undefined, r: AnalysisResult, o
   }
   if (r.reasons.zeros) out(`  (${r.reasons.zeros})`);
   out('');
-  out(`DC gain:            ${r.dcGain === null ? `— (${r.reasons.dcGain ?? 'undefined'})` : `${r.dcGain.toPrecision(5)} (${(20 * Math.log10(Math.abs(r.dcGain) || 1e-300)).toFixed(2)} dB)`}`);
+  out(`DC gain:            ${r.dcGain === null ? `— (${r.reasons.dcGain ?? 'undefined'})` : gainText(r.dcGain, r.gainUnit)}`);
   out(`−3 dB bandwidth:    ${r.bandwidthHz === null ? `— (${r.reasons.bandwidthHz ?? 'undefined'})` : hz(r.bandwidthHz)}`);
   out(`Unity-gain freq.:   ${r.unityGainHz === null ? `— (${r.reasons.unityGainHz ?? 'undefined'})` : `${hz(r.unityGainHz)}, phase ${r.phaseAtUnityDeg === null ? '—' : r.phaseAtUnityDeg.toFixed(1) + '°'}`}`);
   if (r.octc) out(`OCTC estimate:      ${r.octc.bandwidthHz === null ? `— (${r.octc.reason ?? ''})` : `${hz(r.octc.bandwidthHz)} (Στ = ${formatSi(r.octc.sumTau!, 's')})`}`);
@@ -155,4 +155,13 @@ if (invokedDirectly) {
     (code) => { process.exitCode = code; },
     (e) => { console.error(`analyze: internal problem: ${e instanceof Error ? e.message : String(e)}`); process.exitCode = 2; },
   );
+}
+
+/** DC gain with its unit: a ratio (V/V, A/A) also in dB; a transimpedance or transconductance
+ *  also with an SI prefix. */
+function gainText(g: number, unit: string | null): string {
+  const plain = g.toPrecision(5);
+  if (unit === 'Ω' || unit === 'S') return `${plain} ${unit} (${formatSi(g, unit)})`;
+  const db = `${(20 * Math.log10(Math.abs(g) || 1e-300)).toFixed(2)} dB`;
+  return unit ? `${plain} ${unit} (${db})` : `${plain} (${db})`;
 }

@@ -18,7 +18,7 @@ import { nodeTimeConstants, openCircuitTimeConstants, type OctcResult } from './
 import { poleParticipation, type PoleParticipation } from './analyses/participation';
 import { poleVectors } from './analyses/modal';
 import { impedanceSweep, type ImpedanceSweep } from './analyses/impedance-sweep';
-import { chooseSweep, nodeRows, resolveSwitches, sanitize, degenerateDcIssue, type NodeRow, type SweepRange } from './analyses/report';
+import { chooseSweep, nodeRows, resolveSwitches, sanitize, degenerateDcIssue, gainUnitOf, type GainUnit, type NodeRow, type SweepRange } from './analyses/report';
 
 export type * from './types';
 export type { Pole, PoleResult } from './analyses/poles';
@@ -26,7 +26,7 @@ export type { Zero, ZeroResult } from './analyses/zeros';
 export type { Sweep, Crossing } from './analyses/frequency';
 export type { OctcResult, CapTimeConstant, NodeTimeConstant } from './analyses/octc';
 export type { PoleParticipation, NodeShare } from './analyses/participation';
-export type { NodeRow, SweepRange } from './analyses/report';
+export type { GainUnit, NodeRow, SweepRange } from './analyses/report';
 export type { ImpedanceSweep } from './analyses/impedance-sweep';
 export { parseSi, parseGain, formatSi } from './units';
 export { validateNetlist, canonicalNode, isGroundName } from './netlist';
@@ -78,6 +78,8 @@ export interface AnalysisResult {
   zeros: Zero[];
   zeroInfo: { infiniteCount: number; status: string };
   dcGain: number | null;
+  /** Unit of dcGain and of the transfer (V/V, Ω, S or A/A); null without an input and output. */
+  gainUnit: GainUnit | null;
   bandwidthHz: number | null;
   unityGainHz: number | null;
   phaseAtUnityDeg: number | null;
@@ -95,7 +97,7 @@ function emptyResult(issues: EngineIssue[], conditions: AnalysisConditions): Ana
   return {
     ok: false, caution: SMALL_SIGNAL_CAUTION, conditions, issues: [...issues], unknowns: { nodes: 0, branches: 0 },
     poles: [], poleInfo: { infiniteCount: 0, originCount: 0, status: 'not-run' }, zeros: [], zeroInfo: { infiniteCount: 0, status: 'not-run' },
-    dcGain: null, bandwidthHz: null, unityGainHz: null, phaseAtUnityDeg: null, sweep: null, nodes: [], octc: null, participation: [], impedanceSweep: null, reasons: {},
+    dcGain: null, gainUnit: null, bandwidthHz: null, unityGainHz: null, phaseAtUnityDeg: null, sweep: null, nodes: [], octc: null, participation: [], impedanceSweep: null, reasons: {},
   };
 }
 
@@ -153,6 +155,7 @@ export function runAnalyses(sys: MnaSystem, issues: EngineIssue[], conditions: A
 
   const dcT = dcTransfer(sys, dc);
   res.dcGain = dcT.value;
+  res.gainUnit = gainUnitOf(sys);
   if (dcT.reason) reasons.dcGain = dcT.reason;
 
   const range = chooseSweep(opts.sweep, poles.poles, zeros.zeros);

@@ -24,6 +24,19 @@ export interface NodeRow {
   note?: string;
 }
 
+/** Unit of the transfer's gain from the kinds of its input and output: voltage → voltage V/V,
+ *  current → voltage Ω (transimpedance), voltage → current S (transconductance), current → current A/A. */
+export type GainUnit = 'V/V' | 'Ω' | 'S' | 'A/A';
+
+export function gainUnitOf(sys: Pick<MnaSystem, 'elements' | 'input' | 'output'>): GainUnit | null {
+  if (!sys.input || !sys.output) return null;
+  const src = sys.elements.find((e) => e.part === sys.input && (e.type === 'vsource' || e.type === 'isource'));
+  if (!src) return null;
+  const currentIn = src.type === 'isource';
+  const currentOut = sys.output.kind === 'current';
+  return currentIn ? (currentOut ? 'A/A' : 'Ω') : (currentOut ? 'S' : 'V/V');
+}
+
 export interface SweepRange {
   fMin: number;
   fMax: number;
