@@ -24,6 +24,7 @@ import { useEditorAnalysis } from './live/useEditorAnalysis';
 import { AnalysisWireLayer } from './canvas/AnalysisWireLayer';
 import { AnalysisOverlay } from './canvas/AnalysisOverlay';
 import { AnalysisHud } from './canvas/AnalysisHud';
+import type { ElkRunner } from './layout/elkGraph';
 
 export interface AppProps {
   editor: Editor;
@@ -33,6 +34,8 @@ export interface AppProps {
   storage?: Storage | null;
   /** Live analysis store (src/live); by default the app makes its own. */
   analysisStore?: LiveStore;
+  /** Layout engine for tidy and netlist import (tests pass the in-process one); default: a web worker. */
+  elk?: () => ElkRunner;
 }
 
 /** Re-render on every editor change. */
@@ -48,7 +51,7 @@ function isTypingTarget(t: EventTarget | null): boolean {
   return el.tagName === 'INPUT' || el.tagName === 'TEXTAREA' || el.tagName === 'SELECT' || el.isContentEditable;
 }
 
-export function App({ editor, examples = [], storage = typeof localStorage === 'undefined' ? null : localStorage, analysisStore }: AppProps) {
+export function App({ editor, examples = [], storage = typeof localStorage === 'undefined' ? null : localStorage, analysisStore, elk }: AppProps) {
   useEditorVersion(editor);
   const live = useEditorAnalysis(editor, analysisStore);
   const { state, document: doc, selection, camera, history } = editor;
@@ -59,7 +62,7 @@ export function App({ editor, examples = [], storage = typeof localStorage === '
   const [banner, setBanner] = useState<Banner | null>(null);
 
   const dispatch = useCallback((ev: EditorEvent) => editor.dispatch(ev), [editor]);
-  const host = useBrowserHost({ editor, storage, examples, setBanner, onSaved: setSavedDoc });
+  const host = useBrowserHost({ editor, storage, examples, setBanner, onSaved: setSavedDoc, elk });
 
   const analysis = useMemo(() => documentToNetlist(doc), [doc]);
   const errors = analysis.issues.filter((i) => i.severity === 'error').length;
@@ -103,6 +106,7 @@ export function App({ editor, examples = [], storage = typeof localStorage === '
         examples={examples} onCommand={(id) => dispatch({ type: 'command', id })}
         onNew={host.newDrawing} onExample={host.openExample}
         showIssues={showIssues} onToggleIssues={() => setShowIssues((s) => !s)}
+        canTidy
       />
       <Palette
         armed={dragKind ?? armed}

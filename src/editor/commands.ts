@@ -36,6 +36,8 @@ export interface EditorActions {
   open(): void;
   /** Tidy layout (src/layout/tidy.ts tidyEditor): the selection, or the whole drawing; one undo step. */
   tidy?(): void;
+  /** The tidy action is available (the host provides it); without this, `tidy` being set is enough. */
+  canTidy?(): boolean;
 }
 
 export type CommandGroup = 'Tools' | 'Place' | 'Edit' | 'View' | 'File' | 'Help';
@@ -88,7 +90,7 @@ export const COMMANDS: readonly Command[] = [
   { id: 'edit.nudgeUp', label: 'Nudge up one grid step', group: 'Edit', shortcuts: ['ArrowUp'], enabled: (a) => a.hasSelection(), run: (a) => a.nudge(0, -10) },
   { id: 'edit.nudgeDown', label: 'Nudge down one grid step', group: 'Edit', shortcuts: ['ArrowDown'], enabled: (a) => a.hasSelection(), run: (a) => a.nudge(0, 10) },
   { id: 'edit.selectAll', label: 'Select all', group: 'Edit', shortcuts: ['Mod+A'], enabled: (a) => !a.isEmpty(), run: (a) => a.selectAll() },
-  { id: 'layout.tidy', label: 'Tidy layout (selection or all)', group: 'Edit', shortcuts: ['Shift+L'], enabled: (a) => !!a.tidy && !a.isEmpty(), run: (a) => a.tidy?.() },
+  { id: 'layout.tidy', label: 'Tidy layout (selection or all)', group: 'Edit', shortcuts: ['Shift+L'], enabled: (a) => (a.canTidy ? a.canTidy() : !!a.tidy) && !a.isEmpty(), run: (a) => a.tidy?.() },
   { id: 'view.fit', label: 'Fit drawing to view', group: 'View', shortcuts: ['h'], enabled: always, run: (a) => a.fitView() },
   { id: 'view.zoomIn', label: 'Zoom in', group: 'View', shortcuts: ['=', '+'], enabled: always, run: (a) => a.zoom(1.25) },
   { id: 'view.zoomOut', label: 'Zoom out', group: 'View', shortcuts: ['-'], enabled: always, run: (a) => a.zoom(0.8) },

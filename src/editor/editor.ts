@@ -11,7 +11,10 @@ import { COMMANDS_BY_ID, commandForKey, type EditorActions } from './commands';
 import { deleteItems, flipItems, moveItems, reorientPart, turnItems } from './edits';
 import { boundsOf } from './geometry';
 import { handlePointer, type ToolContext, type ToolData } from './tools';
-import type { Editor, EditorEvent, EditorHost, EditorState } from './types';
+import type { Editor, EditorEvent, EditorHost, EditorState, ModeName } from './types';
+
+/** Modes that hold a pointer gesture's data (ToolData press / move / wire). */
+const GESTURE_MODES: ReadonlySet<ModeName> = new Set<ModeName>(['select.pointing', 'select.moving', 'select.boxing', 'wire.drawing']);
 
 const INITIAL_STATE: EditorState = {
   mode: 'select.idle', tool: 'select', cursor: null, hover: { type: 'none' }, ghost: null,
@@ -78,6 +81,11 @@ export function createEditor(initial?: DrawingDocument, opts: { host?: EditorHos
     if (history.inGesture) history.cancel();
     data.press = undefined;
     data.wire = undefined;
+    data.move = undefined;
+    // The gesture's data is gone, so its mode goes too (else the next pointer event finds none).
+    const idle: ModeName = state.tool === 'wire' ? 'wire.idle' : 'select.idle';
+    if (data.pan && GESTURE_MODES.has(data.pan.back)) data.pan.back = idle;
+    if (GESTURE_MODES.has(state.mode)) setState({ mode: idle, wirePreview: null, box: null });
   };
 
   const actions: EditorActions = {
@@ -171,6 +179,8 @@ export function createEditor(initial?: DrawingDocument, opts: { host?: EditorHos
     toggleHelp: () => setState({ helpOpen: !state.helpOpen }),
     save: () => host.saveFile?.(history.doc),
     open: () => host.openFile?.(),
+    tidy: () => host.tidy?.(),
+    canTidy: () => !!host.tidy,
   };
 
   function pasteClip(c: Clip, at?: { x: number; y: number }): void {

@@ -94,6 +94,8 @@ export interface EditorHost {
   requestPaste?(): void;
   saveFile?(doc: DrawingDocument): void;
   openFile?(): void;
+  /** Tidy layout of the selection or the whole drawing (src/export/browserExport.ts editorTidy). */
+  tidy?(): void;
 }
 
 export interface Editor {
@@ -112,7 +114,7 @@ export interface Editor {
   /** Edit a part's parameter text; the text is kept even when invalid. One undo entry. */
   setParam(part: PartId, name: string, text: string): void;
   /** Edit other part fields (bulk, mode, isInput, rotation, mirror). One undo entry. */
-  updatePart(part: PartId, patch: Partial<Pick<import('../schematic/document').PartRecord, 'bulk' | 'mode' | 'isInput' | 'rotation' | 'mirror'>>): void;
+  updatePart(part: PartId, patch: Partial<Pick<import('../schematic/document').PartRecord, 'bulk' | 'mode' | 'isInput' | 'rotation' | 'mirror' | 'pinned'>>): void;
   /** Rename a reference designator; refused (ok: false + reason) when empty, malformed or taken. */
   setRef(part: PartId, ref: string): { ok: true } | { ok: false; reason: string };
   setHost(host: EditorHost): void;

@@ -3,6 +3,7 @@
 import type { Editor } from '../editor/types';
 import type { DrawingDocument } from '../schematic/document';
 import { tidyEditor, type TidyResult } from '../layout/tidy';
+import type { ElkRunner } from '../layout/elkGraph';
 import { workerElk } from '../layout/elkWorker';
 import { analyseDrawing, annotatedSvg, drawingReport, shownSvg, type ExportOptions } from './exportDrawing';
 import type { SchematicAnnotations } from './annotations';
@@ -55,9 +56,9 @@ export function exportActions(
 }
 
 /** The editor's `tidy` action: ELK in a worker, one undo step, the outcome told through `notify`. */
-export function editorTidy(editor: Editor, notify: (message: string, isError: boolean) => void): () => void {
+export function editorTidy(editor: Editor, notify: (message: string, isError: boolean) => void, elk: () => ElkRunner = workerElk): () => void {
   return () => {
-    void tidyEditor(editor, workerElk()).then(
+    void tidyEditor(editor, elk()).then(
       (r: TidyResult) => notify(r.message, r.status === 'failed'),
       (e: unknown) => notify(`Tidy failed: ${e instanceof Error ? e.message : String(e)}`, true),
     );

@@ -63,7 +63,8 @@ function partsOf(net: Netlist, messages: string[]) {
         if (!(useMarker && enginePin === 'n')) messages.push(`${np.name}: pin "${enginePin}" has no place on the ${sym.title} symbol`);
         continue;
       }
-      if (enginePin === 'b' && part.bulk !== 'pin') continue;
+      // A MOS bulk tied to its source or rail has no wire; an npn / pnp 'b' is its base, always wired.
+      if (enginePin === 'b' && (kind === 'nmos' || kind === 'pmos') && part.bulk !== 'pin') continue;
       netOfPin[pinKey({ part: id, pin: sp })] = node(n);
     }
     parts.push(part);

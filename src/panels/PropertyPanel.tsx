@@ -78,6 +78,10 @@ function PartInspector({ editor, part, drafts, setDraft }: { editor: Editor; par
           drives the analysis (input)
         </label>
       )}
+      <label className="checkline" title="Tidy layout moves the other parts around this one">
+        <input type="checkbox" checked={!!part.pinned} onChange={(e) => editor.updatePart(part.id, { pinned: e.target.checked || undefined })} />
+        keep in place when tidying
+      </label>
       {hasModes && (
         <div className="seg" role="group" aria-label="Parameter set">
           {(['bias', 'direct'] as ParamMode[]).map((m) => (

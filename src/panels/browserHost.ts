@@ -7,6 +7,10 @@ import { emptyDocument, type DrawingDocument } from '../schematic/document';
 import { autosave, loadDrawing, restoreAutosave, saveDrawing } from '../schematic/file';
 
 import { CLIP_STORAGE_KEY } from '../editor/clipboard';
+import type { ElkRunner } from '../layout/elkGraph';
+import { workerElk } from '../layout/elkWorker';
+import { importNetlistText } from '../layout/importNetlist';
+import { editorTidy } from '../export/browserExport';
 
 export const CLIPBOARD_KEY = CLIP_STORAGE_KEY;
 const AUTOSAVE_DELAY_MS = 400;
@@ -22,6 +26,13 @@ interface Options {
   examples: { id: string; title: string; load: () => DrawingDocument }[];
   setBanner: (b: Banner | null) => void;
   onSaved: (doc: DrawingDocument) => void;
+  /** Layout engine for tidy and netlist import; by default ELK in a web worker, made on first use. */
+  elk?: () => ElkRunner;
+}
+
+/** An engine netlist file (format 'polesketch-netlist') rather than a drawing or a clipboard clip. */
+export function isNetlistText(text: string): boolean {
+  return /"format"\s*:\s*"polesketch-netlist"/.test(text);
 }
 
 export interface BrowserHost {
@@ -61,7 +72,7 @@ function download(name: string, text: string): void {
   setTimeout(() => URL.revokeObjectURL(url), 0);
 }
 
-export function useBrowserHost({ editor, storage, examples, setBanner, onSaved }: Options): BrowserHost {
+export function useBrowserHost({ editor, storage, examples, setBanner, onSaved, elk = workerElk }: Options): BrowserHost {
   const fileInput = useRef<HTMLInputElement | null>(null);
   const [flash, setFlash] = useState<string | null>(null);
   const flashTimer = useRef<ReturnType<typeof setTimeout> | null>(null);
@@ -71,7 +82,22 @@ export function useBrowserHost({ editor, storage, examples, setBanner, onSaved }
     flashTimer.current = setTimeout(() => setFlash(null), 6000);
   }, []);
 
+  const importNetlist = useCallback((text: string, name: string) => {
+    say(`Importing ${name}…`);
+    void importNetlistText(text, elk()).then((r) => {
+      if (!r.ok) {
+        setBanner({ kind: 'error', text: `${name} was not imported: ${r.messages.join('; ')}. Your current drawing is unchanged.` });
+        return;
+      }
+      editor.load(r.doc, { label: `Import netlist ${name}` });
+      setBanner(r.messages.length ? { kind: 'info', text: `${name} imported with notes: ${r.messages.join('; ')}.` } : null);
+      say(`Imported ${name} as a tidy drawing (Undo brings back the previous drawing).`);
+      editor.dispatch({ type: 'command', id: 'view.fit' });
+    }, (e: unknown) => setBanner({ kind: 'error', text: `${name} was not imported: ${e instanceof Error ? e.message : String(e)}` }));
+  }, [editor, elk, say, setBanner]);
+
   const openText = useCallback((text: string, name: string) => {
+    if (isNetlistText(text)) { importNetlist(text, name); return; }
     const r = loadDrawing(text);
     if (!r.ok) {
       const kept = /unchanged|nothing was changed/i.test(r.reason) ? '' : ' Your current drawing is unchanged.';
@@ -83,7 +109,7 @@ export function useBrowserHost({ editor, storage, examples, setBanner, onSaved }
     setBanner(r.migratedFrom !== undefined ? { kind: 'info', text: `${name} was saved by an older version (format ${r.migratedFrom}) and has been brought up to date.` } : null);
     say(`Opened ${name}.`);
     editor.dispatch({ type: 'command', id: 'view.fit' });
-  }, [editor, onSaved, say, setBanner]);
+  }, [editor, onSaved, say, setBanner, importNetlist]);
 
   const openFileObject = useCallback((file: File) => {
     readFileText(file).then((t) => openText(t, file.name), (e: Error) => setBanner({ kind: 'error', text: `${file.name} could not be read: ${e.message}` }));
@@ -108,18 +134,24 @@ export function useBrowserHost({ editor, storage, examples, setBanner, onSaved }
       requestPaste: () => {
         const fromStorage = () => {
           const t = storage?.getItem(CLIPBOARD_KEY);
-          if (t) editor.dispatch({ type: 'paste', text: t });
+          if (t && isNetlistText(t)) importNetlist(t, 'the pasted netlist');
+          else if (t) editor.dispatch({ type: 'paste', text: t });
           else say('Nothing to paste: copy parts first (here or in another tab of the app).');
         };
         const read = navigator.clipboard?.readText?.bind(navigator.clipboard);
         if (!read) { fromStorage(); return; }
         read().then((t) => {
-          if (t && t.includes('polesketch')) editor.dispatch({ type: 'paste', text: t });
+          if (t && isNetlistText(t)) importNetlist(t, 'the pasted netlist');
+          else if (t && t.includes('polesketch')) editor.dispatch({ type: 'paste', text: t });
           else fromStorage();
         }, fromStorage);
       },
+      tidy: editorTidy(editor, (message, isError) => {
+        if (isError) setBanner({ kind: 'error', text: message });
+        else { setBanner(null); say(message); }
+      }, elk),
     });
-  }, [editor, storage, onSaved, say, setBanner]);
+  }, [editor, storage, onSaved, say, setBanner, importNetlist, elk]);
 
   // Another tab copied parts.
   useEffect(() => {

@@ -69,6 +69,8 @@ export interface PartRecord {
   mode?: ParamMode;
   /** vsource / isource only: this source drives the analysis (Netlist.input). */
   isInput?: boolean;
+  /** The tidy layout leaves this part where it is (src/layout/model.ts isPinned). */
+  pinned?: boolean;
 }
 
 /** An orthogonal polyline (each segment horizontal or vertical), points on the grid.

@@ -108,6 +108,10 @@ function validatePart(key: string, raw: unknown): { ok: true; part: PartRecord }
     if (typeof r.isInput !== 'boolean') return { ok: false, reason: `Part ${name}: field "isInput" must be true or false.` };
     part.isInput = r.isInput;
   }
+  if (r.pinned !== undefined) {
+    if (typeof r.pinned !== 'boolean') return { ok: false, reason: `Part ${name}: field "pinned" must be true or false.` };
+    if (r.pinned) part.pinned = true;
+  }
   return { ok: true, part };
 }
 
