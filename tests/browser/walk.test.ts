@@ -146,4 +146,79 @@ browserSuite('walk-through of the main job in Chromium', () => {
     expect(Math.abs(figure(after, 'F') - figure(before, 'F') - 1e-12)).toBeLessThan(0.02e-12);
     expect(errors).toEqual([]);
   });
+  const CASCODE = 'Readout amplifier: regulated cascode current source';
+  let zOutOn = NaN;
+  async function setFrequency(text: string): Promise<void> {
+    const field = page.getByLabel('Frequency of the node impedances');
+    await field.fill(text);
+    await field.press('Enter');
+  }
+
+  it('on the regulated cascode, switching the error amplifier loop off drops Rout and raises the held node', async () => {
+    await page.getByRole('button', { name: /Drawing/ }).click();
+    await page.getByRole('menuitem', { name: CASCODE }).click();
+    await page.waitForFunction((t) => document.querySelector('.doc-title')?.textContent?.includes(t), CASCODE);
+    await page.getByRole('tab', { name: /Nodes/ }).click();
+    await page.waitForSelector('[data-testid="node-row"][data-node="x"]', { timeout: 30000 });
+    await idle();
+    const outOn = await nodeZ('out');
+    // x is held at frequencies where Cout shorts the output (above 1/(2π·Rout·Cout) ≈ 17 kHz with
+    // the loop off); at DC M2 carries no signal current and x's impedance is ro1 either way.
+    const xDc = await nodeZ('x');
+    await setFrequency('10M');
+    const xOn = await changed(() => nodeZ('x'), xDc, 'node table |Z| of x at 10 MHz');
+    await idle();
+    await page.getByRole('tab', { name: /Loops/ }).click();
+    const loop = page.locator('[data-testid="loop-item"]', { has: page.getByText(/A1/) }).first();
+    await loop.waitFor({ timeout: 30000 });
+    await shot('03-cascode-loops');
+    console.log('loop holds:', await loop.locator('[data-testid="loop-holds"]').innerText());
+    await loop.getByRole('switch').click();
+    await page.getByRole('tab', { name: /Nodes/ }).click();
+    const xOff = await changed(() => nodeZ('x'), xOn, 'node table |Z| of x at 10 MHz, loop off');
+    await setFrequency('DC');
+    await page.getByRole('columnheader', { name: '|Z| @ DC' }).waitFor({ timeout: 30000 });
+    await idle();
+    const outOff = await nodeZ('out');
+    await shot('04-cascode-loop-off');
+    const zOutOff = figure(outOff, 'Ω');
+    console.log(`out at DC ${outOn} → ${outOff}; x at 10 MHz ${xOn} → ${xOff}`);
+    zOutOn = figure(outOn, 'Ω');
+    // Regulated (gain-boosted) cascode: the error amplifier raises Rout by about (1 + A), A = 100
+    // here, and holds its sensed node x by the same factor at A(f) (Gray & Meyer; Sansen).
+    expect(zOutOn / zOutOff).toBeGreaterThan(30);
+    expect(zOutOn / zOutOff).toBeLessThan(300);
+    expect(figure(xOff, 'Ω') / figure(xOn, 'Ω')).toBeGreaterThan(5);
+    expect(errors).toEqual([]);
+  });
+
+  it('compare mode pins the loop-on result as A and shows loop-off as B', async () => {
+    await page.getByRole('tab', { name: /Loops/ }).click();
+    const offItem = page.locator('[data-testid="loop-item"].off').first();
+    await offItem.getByRole('switch').click();
+    await page.locator('[data-testid="loop-item"]', { has: page.getByText(/A1/) }).first().getByRole('switch', { checked: true }).waitFor({ timeout: 30000 });
+    await idle();
+    await page.getByRole('tab', { name: /Nodes/ }).click();
+    expect(figure(await nodeZ('out'), 'Ω') / zOutOn - 1).toBeCloseTo(0, 2); // loop back on: same Rout as before
+    await page.getByRole('tab', { name: /Loops/ }).click();
+    await page.locator('[data-testid="loop-item"]', { has: page.getByText(/A1/) }).first().getByRole('button', { name: /Compare with it off/ }).click();
+    const outRow = page.locator('[data-testid="cmp-node"][data-node="out"]');
+    await outRow.waitFor({ timeout: 30000 });
+    // first row of a node's pair: |Z| of A, of B, and the change
+    const cell = (i: number) => `[data-testid="cmp-node"][data-node="out"] tr:first-child td:nth-of-type(${i + 1})`;
+    await page.waitForFunction(([ca, cb]) => {
+      const a = document.querySelector(ca)?.textContent;
+      const b = document.querySelector(cb)?.textContent;
+      return !!a && !!b && a !== b;
+    }, [cell(0), cell(1)] as const, { timeout: 30000 });
+    await idle();
+    await shot('05-compare');
+    const a = await page.locator(cell(0)).innerText();
+    const b = await page.locator(cell(1)).innerText();
+    console.log(`compare out: A ${a}, B ${b}`);
+    // A is the loop-on figure seen in the node table, B the loop-off one, (1 + A) apart as above.
+    expect(figure(a, 'Ω') / zOutOn - 1).toBeCloseTo(0, 2);
+    expect(figure(a, 'Ω') / figure(b, 'Ω')).toBeGreaterThan(30);
+    expect(errors).toEqual([]);
+  });
 });
