@@ -3,6 +3,7 @@
 // resistor and a capacitor, switch the cascode's error-amplifier loop off, compare A/B, and
 // reload to find the drawing restored. Screenshots go to tests/artifacts/walk-*.png.
 // Waits are on conditions (a badge or table cell changing), never on fixed sleeps.
+import { readFileSync } from 'node:fs';
 import { afterAll, beforeAll, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import { artifactPath, browserSuite, buildAndServe, launchBrowser, type Served } from './harness';
@@ -219,6 +220,65 @@ browserSuite('walk-through of the main job in Chromium', () => {
     // A is the loop-on figure seen in the node table, B the loop-off one, (1 + A) apart as above.
     expect(figure(a, 'Ω') / zOutOn - 1).toBeCloseTo(0, 2);
     expect(figure(a, 'Ω') / figure(b, 'Ω')).toBeGreaterThan(30);
+    expect(errors).toEqual([]);
+  });
+  it('tidies the layout: parts move, the circuit and its figures stay the same', async () => {
+    await page.getByRole('tab', { name: /Nodes/ }).click();
+    await idle();
+    const rowsBefore = await page.locator('[data-testid="node-row"]').allInnerTexts();
+    const before = await savedDoc();
+    await page.getByRole('button', { name: 'Tidy', exact: true }).click();
+    // the app autosaves 400 ms after the change: wait for the stored parts to differ
+    const partsText = await page.evaluate((k) => JSON.stringify(JSON.parse(localStorage.getItem(k)!).parts), AUTOSAVE_KEY);
+    await page.waitForFunction(([k, t]) => JSON.stringify(JSON.parse(localStorage.getItem(k)!).parts) !== t, [AUTOSAVE_KEY, partsText] as const, { timeout: 30000 });
+    const after = await savedDoc();
+    const moved = Object.values(after.parts).filter((p) => { const b = before.parts[p.id]; return b && (b.x !== p.x || b.y !== p.y || b.rotation !== p.rotation); });
+    console.log(`tidy moved ${moved.length} of ${Object.keys(after.parts).length} parts`);
+    expect(moved.length).toBeGreaterThan(0);
+    // same devices with the same values (a layout changes no part, common practice)
+    const devices = (d: DrawingDocument) => Object.values(d.parts).filter((p) => !['ground', 'supply', 'netLabel'].includes(p.kind)).map((p) => `${p.ref}:${JSON.stringify(p.params)}`).sort();
+    expect(devices(after)).toEqual(devices(before));
+    await page.locator('.sheet-zoom').getByTitle('Fit drawing to view').click();
+    await idle();
+    await page.waitForFunction((want) => JSON.stringify(Array.from(document.querySelectorAll('[data-testid="node-row"]')).map((r) => (r as HTMLElement).innerText)) === want,
+      JSON.stringify(rowsBefore), { timeout: 30000 });
+    await shot('06-tidied');
+    expect(await page.locator('[data-testid="node-row"]').allInnerTexts()).toEqual(rowsBefore);
+    expect(errors).toEqual([]);
+  });
+
+  it('exports the annotated schematic as an SVG file', async () => {
+    await page.getByRole('button', { name: /Drawing/ }).click();
+    const [download] = await Promise.all([
+      page.waitForEvent('download', { timeout: 30000 }),
+      page.getByRole('menuitem', { name: /Export SVG/ }).click(),
+    ]);
+    const file = artifactPath('walk-export.svg');
+    await download.saveAs(file);
+    const text = readFileSync(file, 'utf8');
+    expect(download.suggestedFilename()).toMatch(/\.svg$/);
+    const { DOMParser } = await import('@xmldom/xmldom');
+    const svg = new DOMParser().parseFromString(text, 'image/svg+xml');
+    expect(svg.documentElement?.nodeName).toBe('svg'); // W3C SVG 1.1: root element
+    const texts = Array.from(svg.getElementsByTagName('text')).map((t) => t.textContent ?? '');
+    // the drawing's references and the output node's figure are in the file
+    for (const ref of ['M1', 'M2', 'A1']) expect(texts.some((t) => t.includes(ref)), ref).toBe(true);
+    expect(texts.some((t) => /out/.test(t)), 'out label').toBe(true);
+    expect(texts.some((t) => /[\d.]+\s*[kMG]?Ω/.test(t)), 'an impedance figure').toBe(true);
+  });
+
+  it('after a reload the drawing is restored', async () => {
+    const before = await savedDoc();
+    const title = (await page.locator('.doc-title').innerText()).replace('●', ''); // ● marks unsaved changes
+    await page.reload();
+    await page.waitForSelector('[data-testid="analysis-overlay"] .ao-badge', { timeout: 30000 });
+    await idle();
+    await shot('07-reloaded');
+    expect((await page.locator('.doc-title').innerText()).replace('●', '')).toBe(title);
+    await page.getByText('Restored the drawing from your last session.').waitFor({ timeout: 10000 });
+    const after = await savedDoc();
+    expect(after.parts).toEqual(before.parts);
+    expect(after.wires).toEqual(before.wires);
     expect(errors).toEqual([]);
   });
 });
