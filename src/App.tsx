@@ -25,6 +25,8 @@ import { AnalysisWireLayer } from './canvas/AnalysisWireLayer';
 import { AnalysisOverlay } from './canvas/AnalysisOverlay';
 import { AnalysisHud } from './canvas/AnalysisHud';
 import type { ElkRunner } from './layout/elkGraph';
+import { exportActions } from './export/browserExport';
+import { exportOptionsOf } from './export/liveExport';
 
 export interface AppProps {
   editor: Editor;
@@ -65,6 +67,19 @@ export function App({ editor, examples = [], storage = typeof localStorage === '
   const host = useBrowserHost({ editor, storage, examples, setBanner, onSaved: setSavedDoc, elk });
 
   const analysis = useMemo(() => documentToNetlist(doc), [doc]);
+
+  // Exports read the live state at click time: the SVG is drawn from the overlay's annotations.
+  const liveRef = useRef(live);
+  liveRef.current = live;
+  const exports = useMemo(() => exportActions(
+    () => editor.document,
+    () => exportOptionsOf(liveRef.current.state.settings, liveRef.current.state.loops),
+    () => {
+      const l = liveRef.current;
+      return l.ann && l.state.result && l.state.doc === editor.document ? { annotations: l.ann, result: l.state.result } : null;
+    },
+    () => liveRef.current.state,
+  ), [editor]);
   const errors = analysis.issues.filter((i) => i.severity === 'error').length;
   const warnings = analysis.issues.length - errors;
 
@@ -107,6 +122,7 @@ export function App({ editor, examples = [], storage = typeof localStorage === '
         onNew={host.newDrawing} onExample={host.openExample}
         showIssues={showIssues} onToggleIssues={() => setShowIssues((s) => !s)}
         canTidy
+        onExportSvg={exports.onExportSvg} onExportReport={exports.onExportReport} onExportPlots={exports.onExportPlots}
       />
       <Palette
         armed={dragKind ?? armed}

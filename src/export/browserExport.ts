@@ -8,7 +8,8 @@ import { workerElk } from '../layout/elkWorker';
 import { analyseDrawing, annotatedSvg, drawingReport, shownSvg, type ExportOptions } from './exportDrawing';
 import type { SchematicAnnotations } from './annotations';
 import type { AnalysisResult } from '../engine/index';
-import { bodeSvg, poleZeroSvg } from './plotSvg';
+import { DEFAULT_SETTINGS, type LiveState } from '../live/types';
+import { livePlotSvgs, liveReport } from './liveExport';
 
 export function downloadText(name: string, mime: string, text: string): void {
   const url = URL.createObjectURL(new Blob([text], { type: mime }));
@@ -32,6 +33,9 @@ export function exportActions(
   /** What the canvas overlay shows now (src/live liveAnnotations + its result); when given, the
    *  SVG is drawn from exactly that, else recomputed from the drawing with getOptions(). */
   getShown?: () => { annotations: SchematicAnnotations; result: AnalysisResult } | null,
+  /** The live store's state: when given, the report follows its settings (A and B in compare mode)
+   *  and the plots are those of the results panel. */
+  getLive?: () => LiveState | null,
 ) {
   return {
     onExportSvg: () => {
@@ -41,16 +45,16 @@ export function exportActions(
     },
     onExportReport: () => {
       const doc = getDoc();
-      const r = drawingReport(doc, getOptions());
+      const live = getLive?.();
+      const r = live ? liveReport(doc, live, getOptions().date) : drawingReport(doc, getOptions());
       downloadText(`${baseName(doc)}-report.json`, 'application/json', r.json);
       downloadText(`${baseName(doc)}-report.csv`, 'text/csv', r.csv);
     },
     onExportPlots: () => {
       const doc = getDoc();
-      const an = analyseDrawing(doc, getOptions());
-      if (!an.result?.ok) return;
-      if (an.result.sweep) downloadText(`${baseName(doc)}-bode.svg`, 'image/svg+xml', bodeSvg(an.result.sweep, doc.title ?? 'Transfer'));
-      downloadText(`${baseName(doc)}-poles-zeros.svg`, 'image/svg+xml', poleZeroSvg(an.result.poles, an.result.zeros));
+      const live = getLive?.();
+      const shown = live ?? { doc, result: analyseDrawing(doc, getOptions()).result, feedback: null, settings: DEFAULT_SETTINGS, loops: {}, pinnedA: null };
+      for (const f of livePlotSvgs(shown)) downloadText(`${baseName(doc)}-${f.name}.svg`, 'image/svg+xml', f.svg);
     },
   };
 }
