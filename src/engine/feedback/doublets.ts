@@ -4,13 +4,14 @@
 // amplifier's non-dominant pole (else the booster loop itself rings). Linear small-signal estimates.
 import type { Cx, MnaSystem } from '../types';
 import { computePoles } from '../analyses/poles';
-import type { Pole } from '../analyses/poles';
+import type { Pole, PoleResult } from '../analyses/poles';
 import { computeZeros } from '../analyses/zeros';
 import { dcTransfer, transferEvaluator } from '../analyses/transfer';
 import { findBandwidth, logGrid, sweepTransfer } from '../analyses/frequency';
 import { matchPoles } from './matching';
 import { scaledG, sourceStamps } from './pencil';
 import { loopMargins } from './margins';
+import type { LoopMargins } from './margins';
 import type { Loop } from './loops';
 import { fmt } from './regulation';
 
@@ -32,11 +33,12 @@ export interface DoubletResult {
   doublets: Doublet[];
 }
 
-export function findDoublets(sys: MnaSystem, opts: { spacing?: number; scale?: Record<string, number> } = {}): DoubletResult {
+/** `poles`: the poles of the same (scaled) system when already computed. */
+export function findDoublets(sys: MnaSystem, opts: { spacing?: number; scale?: Record<string, number>; poles?: PoleResult } = {}): DoubletResult {
   const limit = opts.spacing ?? 0.1;
   const G = opts.scale ? scaledG(sys, sourceStamps(sys), opts.scale) : sys.G;
   const s = { ...sys, G };
-  const pr = computePoles(s);
+  const pr = opts.poles ?? computePoles(s);
   if (pr.status !== 'ok') return { status: 'no-convergence', reason: pr.reason, doublets: [] };
   const zr = computeZeros(s, pr.poles);
   if (zr.status !== 'ok') return { status: zr.status === 'no-convergence' ? 'no-convergence' : 'no-transfer', reason: zr.reason, doublets: [] };
@@ -67,7 +69,8 @@ export interface BoosterCheck {
 
 /** Loops built around a cascode: an amplifier (the loop's key) drives a device's gate and senses
  *  its source. One check per (amplifier, device) pair, on the loop with the fewest members. */
-export function boosterChecks(sys: MnaSystem, loops: Loop[], opts: { scale?: Record<string, number> } = {}): BoosterCheck[] {
+/** `margins`: the loops' margins by key when already computed (else each booster's are computed). */
+export function boosterChecks(sys: MnaSystem, loops: Loop[], opts: { scale?: Record<string, number>; margins?: Map<string, LoopMargins> } = {}): BoosterCheck[] {
   const found = new Map<string, { loop: Loop; device: string }>();
   for (const loop of loops) {
     const key = sys.elements.find((e) => (e.type === 'vccs' || e.type === 'vcvs') && e.id === loop.key);
@@ -104,7 +107,7 @@ export function boosterChecks(sys: MnaSystem, loops: Loop[], opts: { scale?: Rec
   const p2 = sorted.length >= 2 ? sorted[1].hz : null;
   return [...found.values()].map(({ loop, device }) => {
     const amp = loop.members[0].part;
-    const ugf = loopMargins(sys, loop.key, { scale: base }).unityGainHz;
+    const ugf = (opts.margins?.get(loop.key) ?? loopMargins(sys, loop.key, { scale: base })).unityGainHz;
     const ok = ugf !== null && bw !== null && p2 !== null ? ugf > bw && ugf < p2 : null;
     let verdict: string;
     if (ok === null) verdict = `${amp} around ${device}: placement not checked (${ugf === null ? 'booster loop has no crossover' : bw === null ? 'no closed-loop bandwidth for the chosen transfer' : 'no non-dominant pole'})`;

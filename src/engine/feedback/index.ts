@@ -3,11 +3,12 @@
 // (A/B) and root locus. Every figure is a linear small-signal estimate about the entered bias point.
 import type { EngineIssue, MnaSystem, Netlist } from '../types';
 import { buildMna } from '../mna';
+import { computePoles } from '../analyses/poles';
 import { discoverLoops } from './loops';
 import type { Loop, LoopOptions } from './loops';
 import { loopRegulation } from './regulation';
 import type { Regulation } from './regulation';
-import { loopMarginsMany } from './margins';
+import { loopMarginsFromSweeps, loopMarginsMany } from './margins';
 import type { LoopMargins } from './margins';
 import { boosterChecks, findDoublets } from './doublets';
 import type { BoosterCheck, DoubletResult } from './doublets';
@@ -103,8 +104,11 @@ export function analyzeFeedbackSystem(sys: MnaSystem, opts: FeedbackOptions = {}
     for (const id of off) scale[id] = 0;
   }
   const d = discoverLoops(sys, { ...opts, scale });
-  const keys = [...new Set(d.loops.map((l) => l.key))];
-  const margins = new Map(loopMarginsMany(sys, keys, { scale }).map((m) => [m.key, m]));
+  // the discovery's sweep of each key's return ratio serves the margins (one factor per frequency)
+  // (a caller's own discovery grid may be too sparse for that: then the margins' own grid)
+  const sweeps = [...new Map(d.loops.map((l) => [l.key, l.returnRatio])).values()];
+  const marginList = opts.freqsHz ? loopMarginsMany(sys, sweeps.map((x) => x.id), { scale }) : loopMarginsFromSweeps(sys, sweeps, { scale });
+  const margins = new Map(marginList.map((m) => [m.key, m]));
   const cache = new Map<string, BlackmanResult>();
   const loops: LoopReport[] = d.loops.map((loop) => {
     const { returnRatio: _sweep, ...rest } = loop;
@@ -112,6 +116,9 @@ export function analyzeFeedbackSystem(sys: MnaSystem, opts: FeedbackOptions = {}
     return { loop: rest, regulation: loopRegulation(sys, loop, { scale, cache }), margins: margins.get(loop.key)! };
   });
   const hasTransfer = sys.b.some((v) => v !== 0) && sys.c.some((v) => v !== 0);
+  // one pole computation of the system as analysed serves doublets, sensitivity and step response
+  const scaled = scaleSystem(sys, scale);
+  const poles = computePoles(scaled);
   const result: FeedbackResult = {
     ok: !issues.some((i) => i.severity === 'error'),
     caution: FEEDBACK_CAUTION,
@@ -122,10 +129,10 @@ export function analyzeFeedbackSystem(sys: MnaSystem, opts: FeedbackOptions = {}
     threshold: d.threshold,
     groups: d.groups,
     notes: d.notes,
-    boosters: hasTransfer ? boosterChecks(sys, d.loops, { scale }) : [],
-    doublets: hasTransfer ? findDoublets(sys, { scale }) : null,
-    slowestPole: poleSensitivity(scaleSystem(sys, scale)),
-    step: hasTransfer ? stepResponse(scaleSystem(sys, scale), { maxPoints: 400 }) : null,
+    boosters: hasTransfer ? boosterChecks(sys, d.loops, { scale, margins }) : [],
+    doublets: hasTransfer ? findDoublets(sys, { scale, poles }) : null,
+    slowestPole: poleSensitivity(scaled, { poles }),
+    step: hasTransfer ? stepResponse(scaled, { maxPoints: 400, poles }) : null,
   };
   return jsonSafe(result);
 }

@@ -5,7 +5,7 @@
 import type { Cx, MnaSystem } from '../types';
 import { scaledG, sourceStamps, logSpace } from './pencil';
 import { returnRatiosAt, scaleStamp } from './returnRatio';
-import type { ReturnRatioPoint } from './returnRatio';
+import type { ReturnRatioPoint, ReturnRatioSweep } from './returnRatio';
 import { cabs, carg } from './cx';
 
 export interface LoopMargins {
@@ -48,6 +48,20 @@ export function loopMarginsMany(sys: MnaSystem, keys: string[], opts: MarginOpti
     const i = li++;
     const at = (f: number) => returnRatiosAt(sys, G, [s], 2 * Math.PI * f)[0];
     return marginsFrom(key, dcAll[i], grid, gridAll.map((row) => row[i]), at);
+  });
+}
+
+/** Margins from return-ratio sweeps already computed (e.g. the loop discovery's, one factor per
+ *  frequency for all keys); only the crossings are polished by extra solves. */
+export function loopMarginsFromSweeps(sys: MnaSystem, sweeps: ReturnRatioSweep[], opts: { scale?: Record<string, number> } = {}): LoopMargins[] {
+  const stamps = sourceStamps(sys);
+  const G = scaledG(sys, stamps, opts.scale ?? {});
+  return sweeps.map((sw) => {
+    const raw = stamps.find((s) => s.id === sw.id);
+    if (!raw) return { ...emptyMargins(sw.id), status: 'unknown-source' as const, message: `no controlled source "${sw.id}" in this network` };
+    const s = scaleStamp(raw, opts.scale?.[raw.id]);
+    const at = (f: number) => returnRatiosAt(sys, G, [s], 2 * Math.PI * f)[0];
+    return marginsFrom(sw.id, sw.dc, sw.fHz, sw.points, at);
   });
 }
 

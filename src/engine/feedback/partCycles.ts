@@ -15,7 +15,7 @@
 //    booster: the global loop is one loop, the booster loop another).
 import type { CouplingGraph } from './coupling';
 import { elementaryCycles, shortCycles } from './cycles';
-import { buildPartGraph, localGain, partClosures, partCycleGain } from './partGraph';
+import { CycleEvaluator, buildPartGraph, localGain, partClosures } from './partGraph';
 import type { PartGraph } from './partGraph';
 
 export const EDGE_FLOOR = 1e-9;
@@ -77,31 +77,47 @@ export function findPartCycles(
   }
   // short cycles exhaustively, then Johnson's enumeration for longer ones within the budget
   const short = shortCycles(P, adj, SHORT_LEN, SHORT_BUDGET);
-  const seen = new Set(short.cycles.map((c) => c.join(',')));
   const long = elementaryCycles(P, adj, budget);
-  const all = [...short.cycles, ...long.cycles.filter((c) => !seen.has(c.join(',')))];
+  const all = short.truncated ? [...short.cycles, ...long.cycles.filter((c) => !short.cycles.some((x) => sameCycle(x, c)))]
+    : [...short.cycles, ...long.cycles.filter((c) => c.length > SHORT_LEN)];
   const found = { cycles: all, truncated: short.truncated || long.truncated };
-  // an upper bound over all frequencies, from the peaks, spares evaluating hopeless cycles:
-  // ‖L‖ ≤ ∏ ‖D_PQ‖·‖H_Q‖ (Frobenius), |det(I − L) − 1| ≤ (1 + ‖L‖)^m − 1 for m × m L
-  const hNorm = pg.sourcesOf.map((_, q) => Math.max(...cl.h.map((row) => frobenius(row[q]))));
-  const size = pg.sourcesOf.map((list) => list.length);
-  const bound = (cyc: number[]) => {
-    let b = 1;
-    for (let k = 0; k < cyc.length; k++) {
-      const a = cyc[k], q = cyc[(k + 1) % cyc.length];
-      b *= pg.peak[a * P + q] * Math.sqrt(size[a] * size[q]) * hNorm[q];
+  // an upper bound per frequency spares evaluating hopeless cycles: ‖L‖ ≤ ∏ ‖D_PQ‖·‖H_Q‖ (Frobenius),
+  // and |det(I − L) − 1| ≤ (1 + ‖L‖)^m − 1 for m × m L (m: the smallest part, as L may start anywhere)
+  const F = fz.length;
+  const edgeNorm = new Map<number, Float64Array>();
+  const hNorm = cl.h.map((row) => row.map(frobenius));
+  for (let a = 0; a < P; a++) {
+    for (const b of adj[a]) {
+      const v = new Float64Array(F);
+      for (let fi = 0; fi < F; fi++) v[fi] = blockNorm(g, fi, pg.sourcesOf[a], pg.sourcesOf[b]) * hNorm[fi][b];
+      edgeNorm.set(a * P + b, v);
     }
-    return Math.pow(1 + b, size[cyc[0]]) - 1;
+  }
+  const size = pg.sourcesOf.map((list) => list.length);
+  const prod = new Float64Array(F);
+  const bound = (cyc: number[]) => {
+    prod.fill(1);
+    for (let k = 0; k < cyc.length; k++) {
+      const v = edgeNorm.get(cyc[k] * P + cyc[(k + 1) % cyc.length])!;
+      for (let fi = 0; fi < F; fi++) prod[fi] *= v[fi];
+    }
+    let b = 0;
+    for (let fi = 0; fi < F; fi++) if (prod[fi] > b) b = prod[fi];
+    let m = Infinity;
+    for (const p of cyc) if (size[p] < m) m = size[p];
+    return Math.pow(1 + b, m) - 1;
   };
+  const evaluator = new CycleEvaluator(g, pg, cl);
   const multi: PartCycle[] = [];
   for (const cyc of found.cycles) {
     if (!(bound(cyc) > threshold)) continue;
-    const gains = fz.map((_, fi) => partCycleGain(g, pg, cl, cyc, fi));
-    const mags = gains.map((x) => (x ? Math.hypot(x.re, x.im) : 0));
+    const gains = evaluator.gains(cyc);
+    if (!gains) continue;
+    const mags = fz.map((_, fi) => Math.hypot(gains[2 * fi], gains[2 * fi + 1]));
     const peakIdx = peakOf(mags);
     if (!(mags[peakIdx] > threshold)) continue;
     const { sources, pairs } = cyclePath(g, pg, cyc);
-    multi.push({ parts: cyc, sources, pairs, mags, dc: gains[0] ?? { re: 0, im: 0 }, peakIdx, folded: [] });
+    multi.push({ parts: cyc, sources, pairs, mags, dc: { re: gains[0], im: gains[1] }, peakIdx, folded: [] });
   }
 
   // detours: shortest first, so the loops a longer cycle is made of are decided before it
@@ -184,4 +200,15 @@ function frobenius(m: { re: Float64Array; im: Float64Array } | null): number {
   let s = 0;
   for (let i = 0; i < m.re.length; i++) s += m.re[i] * m.re[i] + m.im[i] * m.im[i];
   return Math.sqrt(s);
+}
+
+function blockNorm(g: CouplingGraph, fi: number, from: number[], to: number[]): number {
+  const N = g.stamps.length;
+  let s = 0;
+  for (const i of from) for (const j of to) { const r = g.re[fi][i * N + j], m = g.im[fi][i * N + j]; s += r * r + m * m; }
+  return Math.sqrt(s);
+}
+
+function sameCycle(a: number[], b: number[]): boolean {
+  return a.length === b.length && a.every((v, k) => v === b[k]);
 }

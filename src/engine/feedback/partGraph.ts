@@ -94,16 +94,115 @@ export function localGain(cl: PartClosures, p: number, fi: number): Cx {
 }
 
 /** Gain of the part cycle (part indices, closing last → first) at frequency index fi; null when a
- *  part's own loop is exactly at the edge (I − D_PP singular). */
-export function partCycleGain(g: CouplingGraph, pg: PartGraph, cl: PartClosures, cycle: number[], fi: number): Cx | null {
+ *  part's own loop is exactly at the edge (I − D_PP singular). `steps` caches D_ab·H_b per part edge
+ *  and frequency across calls (key a·P + b). */
+export function partCycleGain(
+  g: CouplingGraph, pg: PartGraph, cl: PartClosures, cycle: number[], fi: number, steps?: Map<number, (CMat | null)[]>,
+): Cx | null {
+  const P = pg.parts.length;
   let L: CMat | null = null;
   for (let k = 0; k < cycle.length; k++) {
     const a = cycle[k], b = cycle[(k + 1) % cycle.length];
-    const hb = cl.h[fi][b];
-    if (!hb) return null;
-    const step = cmatMul(couplingBlock(g, fi, pg.sourcesOf[a], pg.sourcesOf[b]), hb);
+    let row = steps?.get(a * P + b);
+    if (!row) { row = new Array(g.fHz.length).fill(undefined); steps?.set(a * P + b, row); }
+    let step = row[fi];
+    if (step === undefined) {
+      const hb = cl.h[fi][b];
+      step = hb ? cmatMul(couplingBlock(g, fi, pg.sourcesOf[a], pg.sourcesOf[b]), hb) : null;
+      row[fi] = step;
+    }
+    if (!step) return null;
     L = L ? cmatMul(L, step) : step;
   }
   const d = cmatDetInv(cmatIdentityMinus(L!), false).det;
   return { re: d.re - 1, im: d.im };
+}
+
+/** Evaluates part-cycle gains at every sweep frequency without per-call allocation: the steps
+ *  D_ab·H_b are formed once per part edge (all frequencies) and a cycle is started at its part with
+ *  the fewest sources (det(I − L) does not depend on where L starts, det(I − AB) = det(I − BA)). */
+export class CycleEvaluator {
+  private readonly steps = new Map<number, Float64Array | null>();
+  private readonly F: number;
+  private readonly P: number;
+  private readonly size: number[];
+  private readonly vr: Float64Array;
+  private readonly vi: Float64Array;
+  private readonly wr: Float64Array;
+  private readonly wi: Float64Array;
+
+  constructor(private readonly g: CouplingGraph, private readonly pg: PartGraph, private readonly cl: PartClosures) {
+    this.F = g.fHz.length;
+    this.P = pg.parts.length;
+    this.size = pg.sourcesOf.map((l) => l.length);
+    const m = Math.max(1, ...this.size);
+    this.vr = new Float64Array(m); this.vi = new Float64Array(m);
+    this.wr = new Float64Array(m); this.wi = new Float64Array(m);
+  }
+
+  /** D_ab·H_b for every frequency, [fi][row][col][re,im] flattened; null when some H_b is singular. */
+  private step(a: number, b: number): Float64Array | null {
+    const key = a * this.P + b;
+    if (this.steps.has(key)) return this.steps.get(key)!;
+    const ra = this.size[a], cb = this.size[b];
+    const out = new Float64Array(this.F * ra * cb * 2);
+    let ok = true;
+    for (let fi = 0; fi < this.F && ok; fi++) {
+      const hb = this.cl.h[fi][b];
+      if (!hb) { ok = false; break; }
+      const m = cmatMul(couplingBlock(this.g, fi, this.pg.sourcesOf[a], this.pg.sourcesOf[b]), hb);
+      const base = fi * ra * cb * 2;
+      for (let k = 0; k < ra * cb; k++) { out[base + 2 * k] = m.re[k]; out[base + 2 * k + 1] = m.im[k]; }
+    }
+    const v = ok ? out : null;
+    this.steps.set(key, v);
+    return v;
+  }
+
+  /** Complex gains det(I − L) − 1 per frequency as [re0, im0, re1, im1, …]; null when not defined. */
+  gains(cycle: number[]): Float64Array | null {
+    let start = 0;
+    for (let k = 1; k < cycle.length; k++) if (this.size[cycle[k]] < this.size[cycle[start]]) start = k;
+    const cyc = [...cycle.slice(start), ...cycle.slice(0, start)];
+    const stepList: Float64Array[] = [];
+    for (let k = 0; k < cyc.length; k++) {
+      const s = this.step(cyc[k], cyc[(k + 1) % cyc.length]);
+      if (!s) return null;
+      stepList.push(s);
+    }
+    const m = this.size[cyc[0]];
+    const out = new Float64Array(this.F * 2);
+    const L = cmatZeros(m, m);
+    for (let fi = 0; fi < this.F; fi++) {
+      for (let row = 0; row < m; row++) {
+        // row vector e_row pushed through the chain of steps
+        this.vr.fill(0); this.vi.fill(0); this.vr[row] = 1;
+        let len = m;
+        for (let k = 0; k < cyc.length; k++) {
+          const cols = this.size[cyc[(k + 1) % cyc.length]];
+          const s = stepList[k];
+          const base = fi * len * cols * 2;
+          for (let j = 0; j < cols; j++) {
+            let sr = 0, si = 0;
+            for (let i = 0; i < len; i++) {
+              const er = s[base + 2 * (i * cols + j)], ei = s[base + 2 * (i * cols + j) + 1];
+              sr += this.vr[i] * er - this.vi[i] * ei;
+              si += this.vr[i] * ei + this.vi[i] * er;
+            }
+            this.wr[j] = sr; this.wi[j] = si;
+          }
+          for (let j = 0; j < cols; j++) { this.vr[j] = this.wr[j]; this.vi[j] = this.wi[j]; }
+          len = cols;
+        }
+        for (let j = 0; j < m; j++) { L.re[row * m + j] = this.vr[j]; L.im[row * m + j] = this.vi[j]; }
+      }
+      let dr: number, di: number;
+      if (m === 1) { dr = 1 - L.re[0]; di = -L.im[0]; } else {
+        const d = cmatDetInv(cmatIdentityMinus(L), false).det;
+        dr = d.re; di = d.im;
+      }
+      out[2 * fi] = dr - 1; out[2 * fi + 1] = di;
+    }
+    return out;
+  }
 }

@@ -8,6 +8,7 @@
 import type { Cx, Element, MnaSystem } from '../types';
 import { eigenvectorPair } from '../linalg/eigvec';
 import { computePoles } from '../analyses/poles';
+import type { PoleResult } from '../analyses/poles';
 import { cabs, cdiv, cmul, cx } from './cx';
 
 export interface ElementSensitivity {
@@ -32,8 +33,8 @@ export interface PoleSensitivity {
 }
 
 /** Sensitivity of the slowest pole (default) or of the finite pole nearest `target`. */
-export function poleSensitivity(sys: MnaSystem, opts: { target?: Cx } = {}): PoleSensitivity {
-  const pr = computePoles(sys);
+export function poleSensitivity(sys: MnaSystem, opts: { target?: Cx; poles?: PoleResult } = {}): PoleSensitivity {
+  const pr = opts.poles ?? computePoles(sys);
   if (pr.status !== 'ok') return { status: 'no-convergence', message: pr.reason, pole: null, ranked: [], residual: null };
   const finite = pr.poles.filter((p) => p.kind !== 'origin');
   if (!finite.length) return { status: 'no-pole', message: 'the network has no finite non-zero pole', pole: null, ranked: [], residual: null };

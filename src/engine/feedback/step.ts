@@ -8,6 +8,7 @@ import type { MnaSystem } from '../types';
 import { luReal, solveReal } from '../linalg/lu';
 import type { RealLU } from '../linalg/lu';
 import { computePoles } from '../analyses/poles';
+import type { PoleResult } from '../analyses/poles';
 
 export interface SettlingTime { tolerance: number; seconds: number | null }
 
@@ -30,6 +31,8 @@ export interface StepOptions {
   maxSteps?: number;
   /** Max points returned (the response is thinned evenly in step index); default 4000. */
   maxPoints?: number;
+  /** Poles of the same system when already computed. */
+  poles?: PoleResult;
 }
 
 export function stepResponse(sys: MnaSystem, opts: StepOptions = {}): StepResponse {
@@ -45,7 +48,7 @@ export function stepResponse(sys: MnaSystem, opts: StepOptions = {}): StepRespon
   const yInf = dot(c, xInf);
   const scale = Math.max(Math.abs(yInf), 1e-300);
   // time scales from the poles: start well below the fastest, run to many slowest time constants
-  const pr = computePoles({ n, G, C });
+  const pr = opts.poles ?? computePoles({ n, G, C });
   const rates = pr.poles.filter((p) => p.kind !== 'origin' && p.omegaN > 0);
   if (pr.status !== 'ok' || rates.length === 0) {
     if (!opts.tEnd) return empty('singular', 'no finite poles found: the output follows the input instantly');
