@@ -7,6 +7,7 @@ import type { DrawingDocument, Point } from '../schematic/document';
 import { computeConnectivity, GROUND_NET, type NetInfo } from '../schematic/connectivity';
 import { BADGE_TEXT_SIZE, badgeSize, type Badge, type SchematicAnnotations } from './annotations';
 import { partBox } from '../layout/model';
+import { colorByTimeConstant } from './tauColoring';
 import { DEFAULT_SCALE, impedanceColor, legendStops, NO_VALUE_COLOR, scaleFor, type ImpedanceScale } from './colorScale';
 
 export interface AnnotateSettings {
@@ -18,6 +19,8 @@ export interface AnnotateSettings {
   loop?: { id: string; label: string; nets: string[] } | null;
   /** Which nets get a badge (default all analysed nets). */
   badges?: 'all' | 'none' | string[];
+  /** What colours the nets: node |Z| (default) or node time constant τ (tauColoring.ts). */
+  colorBy?: 'impedance' | 'timeConstant';
 }
 
 /** |Z| of a node row in the chosen column. */
@@ -103,5 +106,5 @@ export function annotate(doc: DrawingDocument, result: AnalysisResult | null, se
   }
   const what = column === 'dc' ? 'at DC' : fz !== null ? `at ${formatSi(fz, 'Hz')}` : '';
   out.legend = { title: `node |Z| ${what}`.trim(), stops: legendStops(scale ?? DEFAULT_SCALE), noValueColor: NO_VALUE_COLOR, noValueLabel: 'open / not computed' };
-  return out;
+  return settings.colorBy === 'timeConstant' ? colorByTimeConstant(out, result) : out;
 }

@@ -7,6 +7,7 @@ import { loadDrawing } from '../schematic/file';
 import { netlistToDrawing } from '../layout/importNetlist';
 import { nodeElk } from '../layout/elkNode';
 import { annotatedSvg, type ExportOptions } from './exportDrawing';
+import { DEFAULT_EXPORT_OPTIONS } from './liveOptions';
 
 export async function drawingForCli(json: unknown): Promise<{ doc?: DrawingDocument; problems: string[] }> {
   const fmt = (json as { format?: unknown } | null)?.format;
@@ -23,7 +24,7 @@ export async function writeSvgFile(json: unknown, path: string, opts: ExportOpti
   const d = await drawingForCli(json);
   if (!d.doc) return d.problems.map((p) => `--svg: ${p}`);
   try {
-    writeFileSync(path, annotatedSvg(d.doc, opts), 'utf8');
+    writeFileSync(path, annotatedSvg(d.doc, { ...DEFAULT_EXPORT_OPTIONS, ...opts }), 'utf8');
   } catch (e) {
     return [`--svg: cannot write ${path} (${(e as NodeJS.ErrnoException).code ?? (e as Error).message})`];
   }

@@ -19,6 +19,7 @@ export interface ExportOptions {
   /** Loop id (LoopRow.id) to draw as the selected loop. */
   selectedLoop?: string;
   column?: AnnotateSettings['column'];
+  colorBy?: AnnotateSettings['colorBy'];
   note?: string;
 }
 
@@ -47,7 +48,7 @@ export function analyseDrawing(doc: DrawingDocument, opts: ExportOptions = {}): 
 
 export function annotationsFor(doc: DrawingDocument, an: DrawingAnalysis, opts: ExportOptions = {}): SchematicAnnotations {
   const loop = an.loops.loops.find((l) => l.id === opts.selectedLoop);
-  return annotate(doc, an.result, { column: opts.column, loop: loop ? { id: loop.id, label: loop.label, nets: loop.nets } : null });
+  return annotate(doc, an.result, { column: opts.column, colorBy: opts.colorBy, loop: loop ? { id: loop.id, label: loop.label, nets: loop.nets } : null });
 }
 
 export function titleBlockFor(doc: DrawingDocument, an: DrawingAnalysis, opts: ExportOptions = {}): TitleBlock {

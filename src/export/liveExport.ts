@@ -4,19 +4,13 @@ import type { DrawingDocument } from '../schematic/document';
 import type { LiveSettings, LiveState } from '../live/types';
 import { bodeModel, impedanceModel, splaneModel, stepModel, toSvg } from '../plots/index';
 import { bodeInput, impedanceInput, impedanceNode, splaneInput, stepInput } from '../panels/results/plotInputs';
-import { analyseDrawing, today, type ExportOptions } from './exportDrawing';
+import { analyseDrawing, today } from './exportDrawing';
+import { exportOptionsOf } from './liveOptions';
+
+export { exportOptionsOf };
 import { reportCsv, reportJson, type ReportSide } from './report';
 
 type Shown = Pick<LiveState, 'doc' | 'result' | 'feedback' | 'settings' | 'loops' | 'pinnedA'>;
-
-/** Export options equal to the live settings: frequency and the switched-off loops' key sources. */
-export function exportOptionsOf(settings: LiveSettings, loops: LiveState['loops'], date?: string): ExportOptions {
-  const off = settings.offLoopIds.map((id) => loops[id]?.key).filter((k): k is string => !!k);
-  const o: ExportOptions = { frequencyHz: settings.frequencyHz, column: settings.frequencyHz === 0 ? 'dc' : 'frequency' };
-  if (off.length) o.off = off;
-  if (date) o.date = date;
-  return o;
-}
 
 /** JSON + CSV report of the shown settings; with a pinned A, side A is it and side B the drawing now. */
 export function liveReport(doc: DrawingDocument, state: Shown, date = today()): { json: string; csv: string; problems: string[] } {

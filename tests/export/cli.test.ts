@@ -4,6 +4,7 @@ import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { main } from '../../src/cli/analyze';
 import { annotatedSvg } from '../../src/export/exportDrawing';
+import { DEFAULT_EXPORT_OPTIONS } from '../../src/export/liveOptions';
 import { saveDrawing } from '../../src/schematic/file';
 import { all, exampleDrawing, exampleNetlist, parseXml } from './fixtures';
 
@@ -28,7 +29,7 @@ describe('command line --svg', () => {
     const out = join(dir, 'drawing.svg');
     expect(await main([file, '--svg', out], quiet, quiet)).toBe(0);
     const cli = readFileSync(out, 'utf8');
-    const browser = annotatedSvg(doc); // what the top bar's export writes for this drawing
+    const browser = annotatedSvg(doc, DEFAULT_EXPORT_OPTIONS); // what the top bar's export writes for a freshly opened drawing
     expect(essence(cli)).toEqual(essence(browser));
     expect(essence(cli).groups.some((g) => g.startsWith('net-out|net|#'))).toBe(true);
     expect(essence(cli).groups).toContain('slowest-node|slowest|');
@@ -39,7 +40,7 @@ describe('command line --svg', () => {
     writeFileSync(file, JSON.stringify(exampleNetlist('sensor-cs-miller')));
     const out = join(dir, 'netlist.svg');
     expect(await main([file, '--svg', out], quiet, quiet)).toBe(0);
-    const browser = annotatedSvg(await exampleDrawing('sensor-cs-miller'));
+    const browser = annotatedSvg(await exampleDrawing('sensor-cs-miller'), DEFAULT_EXPORT_OPTIONS);
     expect(essence(readFileSync(out, 'utf8'))).toEqual(essence(browser));
   });
 
