@@ -1,0 +1,128 @@
+// Browser bench (not a test, never asserts): time from an edit to the updated analysis overlay in
+// Chromium, on an invented drawing of 60 MNA unknowns. Run: `npx tsx tests/bench/browser-bench.ts`.
+// Method: build the app, serve it, open the drawing, change one resistor's value in the property
+// panel, then alternate the top bar's Undo / Redo. Each click stamps performance.now() in the
+// page (capture listener, before the app sees it); a MutationObserver stamps the first change of
+// the overlay's badge texts/titles, and the next requestAnimationFrame stamps the frame that shows
+// it. No app hook is needed: the overlay DOM is the thing measured.
+import { existsSync, mkdtempSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { netlistToDrawing } from '../../src/layout/importNetlist';
+import { nodeElk } from '../../src/layout/elkNode';
+import { saveDrawing } from '../../src/schematic/file';
+import { documentToNetlist } from '../../src/schematic/toNetlist';
+import { analyze } from '../../src/engine/index';
+import { placedBounds } from '../../src/schematic/symbols';
+
+const ROOT = fileURLToPath(new URL('../..', import.meta.url));
+const CHROMIUM = process.env.CHROMIUM_PATH || '/usr/bin/chromium';
+const EDITS = Number(process.env.BENCH_EDITS ?? 16);
+
+/** Invented chain: 19 common-source stages, each loaded by R and followed by a two-section RC. */
+function chainNetlist(stages: number) {
+  const parts: unknown[] = [
+    { name: 'Vin', kind: 'vsource', pins: { p: 'in', n: '0' }, values: {} },
+    { name: 'Rs', kind: 'resistor', pins: { p: 'in', n: 'g1' }, values: { value: '1k' } },
+  ];
+  let gate = 'g1';
+  for (let k = 1; k <= stages; k++) {
+    const d = `d${k}`, a = `a${k}`, b = `b${k}`;
+    parts.push(
+      { name: `M${k}`, kind: 'nmos', pins: { d, g: gate, s: '0', b: '0' }, values: { id: '50u', gmid: '12', w: '10u', l: '0.5u' } },
+      { name: `RL${k}`, kind: 'resistor', pins: { p: d, n: '0' }, values: { value: '20k' } },
+      { name: `RA${k}`, kind: 'resistor', pins: { p: d, n: a }, values: { value: '5k' } },
+      { name: `CA${k}`, kind: 'capacitor', pins: { p: a, n: '0' }, values: { value: '50f' } },
+      { name: `RB${k}`, kind: 'resistor', pins: { p: a, n: b }, values: { value: '5k' } },
+      { name: `CB${k}`, kind: 'capacitor', pins: { p: b, n: '0' }, values: { value: '80f' } },
+    );
+    gate = b;
+  }
+  return {
+    format: 'polesketch-netlist', version: 1, title: 'Invented bench chain of common-source stages with RC sections',
+    process: 'demo180-invented', input: 'Vin', output: { kind: 'voltage', node: gate }, parts,
+  };
+}
+
+async function main() {
+  if (!existsSync(CHROMIUM)) { console.log(`browser bench skipped: no Chromium at ${CHROMIUM}`); return; }
+  const imported = await netlistToDrawing(chainNetlist(19), nodeElk());
+  if (!imported.ok) { console.log('bench drawing could not be made:', imported.messages.join('; ')); return; }
+  const doc = imported.doc;
+  const engineCheck = analyze(documentToNetlist(doc).netlist!);
+  const unknowns = engineCheck.unknowns.nodes + engineCheck.unknowns.branches;
+  console.log(`drawing: ${Object.keys(doc.parts).length} parts, ${unknowns} MNA unknowns (${engineCheck.unknowns.nodes} nodes + ${engineCheck.unknowns.branches} branches)`);
+
+  const { build, preview } = await import('vite');
+  const configFile = join(ROOT, 'src', 'vite.config.ts');
+  const outDir = mkdtempSync(join(tmpdir(), 'polesketch-bench-'));
+  await build({ configFile, logLevel: 'error', build: { outDir, emptyOutDir: true } });
+  const server = await preview({ configFile, logLevel: 'error', build: { outDir }, preview: { port: 0, host: '127.0.0.1', strictPort: false } });
+  const url = server.resolvedUrls?.local[0] ?? `http://127.0.0.1:${(server.httpServer.address() as { port: number }).port}/`;
+  const { chromium } = await import('playwright-core');
+  const browser = await chromium.launch({
+    executablePath: CHROMIUM,
+    args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run'],
+  });
+  try {
+    const page = await (await browser.newContext({ viewport: { width: 1440, height: 900 } })).newPage();
+    await page.addInitScript('window.__name = (f) => f'); // tsx keeps function names with a helper the page lacks
+    await page.goto(url);
+    await page.waitForSelector('canvas', { timeout: 20000 });
+    await page.setInputFiles('[data-testid="file-input"]', { name: 'bench.json', mimeType: 'application/json', buffer: Buffer.from(saveDrawing(doc)) });
+    await page.waitForFunction(() => document.querySelector('.doc-title')?.textContent?.includes('bench chain'), undefined, { timeout: 30000 });
+    await page.waitForSelector('[data-testid="analysis-overlay"] .ao-badge, [data-testid="analysis-overlay"] .ao-dot', { timeout: 60000 });
+    await page.waitForFunction(() => !document.querySelector('.ao-busy'), undefined, { timeout: 60000 });
+    console.log('runner:', await page.getAttribute('[data-testid="analysis-overlay"]', 'data-runner'));
+
+    // select RL10 by clicking its body, then give it a new value: the first edit on the history
+    const cam = (await page.getAttribute('[data-testid="analysis-overlay"]', 'data-camera'))!.split(',').map(Number);
+    const box = (await page.locator('[data-testid="sheet"]').boundingBox())!;
+    const rl = Object.values(doc.parts).find((p) => p.ref === 'RL10')!;
+    const bb = placedBounds(rl);
+    await page.mouse.click(box.x + (bb.x + bb.width / 2) * cam[0] + cam[1], box.y + (bb.y + bb.height / 2) * cam[0] + cam[2]);
+    const field = page.getByLabel(/Resistance/);
+    await field.fill('7k');
+    await field.press('Enter');
+    await page.locator('.sheet').focus();
+
+    await page.evaluate(() => {
+      const w = window as unknown as { __bench: { t0: number; t1: number; t2: number; snap: string } };
+      const snap = () => {
+        const root = document.querySelector('[data-testid="analysis-overlay"]');
+        if (!root) return '';
+        return Array.from(root.querySelectorAll('.ao-badge, .ao-dot')).map((e) => (e as HTMLElement).innerText + '|' + (e.getAttribute('title') ?? '')).join('\n');
+      };
+      w.__bench = { t0: 0, t1: 0, t2: 0, snap: snap() };
+      window.addEventListener('click', () => { w.__bench.t0 = performance.now(); w.__bench.t1 = 0; w.__bench.t2 = 0; w.__bench.snap = snap(); }, true);
+      new MutationObserver(() => {
+        const b = w.__bench;
+        if (!b.t0 || b.t1) return;
+        const s = snap();
+        if (s && s !== b.snap) {
+          b.t1 = performance.now();
+          requestAnimationFrame(() => { b.t2 = performance.now(); });
+        }
+      }).observe(document.body, { subtree: true, childList: true, characterData: true, attributes: true, attributeFilter: ['title'] });
+    });
+
+    const toOverlay: number[] = [], toFrame: number[] = [];
+    for (let i = 0; i < EDITS; i++) {
+      await page.getByRole('button', { name: i % 2 === 0 ? 'Undo' : 'Redo', exact: true }).click();
+      await page.waitForFunction(() => (window as unknown as { __bench: { t2: number } }).__bench.t2 > 0, undefined, { timeout: 60000 });
+      const t = await page.evaluate(() => (window as unknown as { __bench: { t0: number; t1: number; t2: number } }).__bench);
+      toOverlay.push(t.t1 - t.t0);
+      toFrame.push(t.t2 - t.t0);
+    }
+    const med = (v: number[]) => { const s = [...v].sort((a, b) => a - b); return s[Math.floor(s.length / 2)]; };
+    const fmt = (v: number) => v.toFixed(1);
+    console.log(`edit → overlay DOM updated: median ${fmt(med(toOverlay))} ms (min ${fmt(Math.min(...toOverlay))}, max ${fmt(Math.max(...toOverlay))}) over ${EDITS} undo/redo clicks`);
+    console.log(`edit → frame showing it:   median ${fmt(med(toFrame))} ms (min ${fmt(Math.min(...toFrame))}, max ${fmt(Math.max(...toFrame))}); ratio to one 60 Hz frame ${(med(toFrame) / (1000 / 60)).toFixed(1)}×`);
+  } finally {
+    await browser.close();
+    await new Promise<void>((r) => server.httpServer.close(() => r()));
+  }
+}
+
+await main();
