@@ -58,6 +58,10 @@ export function parseSi(text: string | number, unit?: string): SiResult {
   const t = text.trim();
   if (t === '') return { ok: false, reason: 'is empty' };
   const m = NUMBER.exec(t);
+  if (!m && /^[+\-−]?(?:inf|infinity|∞)\s*\S*$/i.test(t)) {
+    // An ideal (infinite) value has no finite small-signal equations.
+    return { ok: false, reason: `"${text}": an infinite value cannot be analysed; give a large finite value instead (e.g. 1G)` };
+  }
   if (!m) return { ok: false, reason: `"${text}" is not a number with an SI prefix` };
   const mantissa = Number(m[1].replace('−', '-'));
   const rest = m[2];

@@ -50,7 +50,7 @@ export function loadDrawing(input: string | unknown, versionLimit: number = DRAW
     try {
       json = JSON.parse(input);
     } catch (e) {
-      return { ok: false, reason: `The file is not valid JSON (${(e as Error).message}).` };
+      return { ok: false, reason: jsonProblem(input, e) };
     }
   }
   if (typeof json !== 'object' || json === null || Array.isArray(json)) return { ok: false, reason: 'The file does not hold a drawing (not a JSON object).' };
@@ -75,6 +75,21 @@ export function loadDrawing(input: string | unknown, versionLimit: number = DRAW
   return migratedFrom === undefined ? checked : { ...checked, migratedFrom };
 }
 
+/** Where a JSON text breaks (line and column from the parser's position), and whether it was
+ *  cut off: a truncated save is the common case. */
+function jsonProblem(text: string, e: unknown): string {
+  const msg = (e as Error).message;
+  if (text.trim() === '') return 'The file is empty (there is no drawing in it).';
+  const m = /position (\d+)/.exec(msg);
+  const at = m ? Number(m[1]) : /end of JSON input/i.test(msg) ? text.length : null;
+  if (at === null) return `The file is not valid JSON (${msg}).`;
+  const before = text.slice(0, at);
+  const line = before.split('\n').length;
+  const column = at - before.lastIndexOf('\n');
+  const cut = at >= text.trimEnd().length ? '; the text ends too early, the file looks cut off' : '';
+  return `The file is not valid JSON at line ${line}, column ${column}${cut} (${msg}).`;
+}
+
 const ROTATIONS = new Set([0, 90, 180, 270]);
 const finite = (x: unknown): x is number => typeof x === 'number' && Number.isFinite(x);
 
@@ -93,6 +108,7 @@ function validatePart(key: string, raw: unknown): { ok: true; part: PartRecord }
   for (const [k, val] of Object.entries(r.params as Record<string, unknown>)) {
     if (typeof val === 'number' && Number.isFinite(val)) params[k] = String(val);
     else if (typeof val === 'string') params[k] = val;
+    else if (typeof val === 'number') return { ok: false, reason: `Part ${name}: parameter "${k}" is a number too large to hold (beyond ±1.8e308).` };
     else return { ok: false, reason: `Part ${name}: parameter "${k}" must be a text or a number.` };
   }
   const part: PartRecord = { id: key, kind: r.kind, ref: r.ref, x: r.x, y: r.y, rotation: r.rotation as Rotation, mirror: r.mirror, params };

@@ -133,7 +133,8 @@ export function finiteEigenvalues(A: Float64Array, B: Float64Array, n: number,
   const tol = 100 * Math.max(n, 1) * ULP;
   const isInfinite = (k: number) => {
     const b = r.beta[k];
-    return b === 0 || Math.abs(b) * r.normA <= tol * Math.hypot(r.alphaRe[k], r.alphaIm[k]) * r.normB;
+    // strict: with A = 0 (e.g. a lone capacitor, G = 0) both sides are 0 and λ = 0 is finite
+    return b === 0 || Math.abs(b) * r.normA < tol * Math.hypot(r.alphaRe[k], r.alphaIm[k]) * r.normB;
   };
   const scale = { normA: frob(A), normB: frob(B) };
   // Raw QZ values first: the polish of one must stay closer to it than to any other.
