@@ -1,5 +1,5 @@
 import { describe, it, expect } from 'vitest';
-import { blackmanAt } from '../../src/engine/feedback/blackman';
+import { blackmanAt, fullPencil } from '../../src/engine/feedback/blackman';
 import { regulationOf, loopRegulation } from '../../src/engine/feedback/regulation';
 import { discoverLoops } from '../../src/engine/feedback/loops';
 import { returnRatioDirect } from '../../src/engine/feedback/returnRatio';
@@ -108,5 +108,25 @@ describe('Blackman impedance formula (Blackman 1943)', () => {
     const r = blackmanAt(regulatedCascode(10, null), 'Q9.gm');
     expect(r.status).toBe('unknown-source');
     expect(r.message).toMatch(/Q9\.gm/);
+  });
+});
+
+describe('shared full factor (Sherman–Morrison)', () => {
+  it('gives the same Z⁰, T_sc, T_oc as factoring the source-removed network (Sherman & Morrison 1950)', () => {
+    const sys = regulatedCascode(50, 10e6);
+    for (const fHz of [0, 3e6, 2e8]) {
+      const shared = fullPencil(sys, sys.G, fHz);
+      for (const key of ['A1.A0', 'M2.gm']) {
+        const direct = blackmanAt(sys, key, { fHz });
+        const viaShared = blackmanAt(sys, key, { fHz, shared });
+        expect(viaShared.status).toBe('ok');
+        direct.nodes.forEach((nd, i) => {
+          const o = viaShared.nodes[i];
+          const rel = (a: { re: number; im: number }, b: { re: number; im: number }) => Math.hypot(a.re - b.re, a.im - b.im) / Math.max(1e-30, Math.hypot(b.re, b.im));
+          expect(rel(o.z0, nd.z0)).toBeLessThan(1e-9);
+          expect(rel(o.factor, nd.factor)).toBeLessThan(1e-9);
+        });
+      }
+    }
   });
 });

@@ -12,7 +12,7 @@ import { loopMarginsFromSweeps, loopMarginsMany } from './margins';
 import type { LoopMargins } from './margins';
 import { boosterChecks, findDoublets } from './doublets';
 import type { BoosterCheck, DoubletResult } from './doublets';
-import type { BlackmanResult } from './blackman';
+import type { BlackmanResult, FullPencil } from './blackman';
 import { poleSensitivity } from './sensitivity';
 import { stepResponse } from './step';
 import type { StepResponse } from './step';
@@ -110,10 +110,11 @@ export function analyzeFeedbackSystem(sys: MnaSystem, opts: FeedbackOptions = {}
   const marginList = opts.freqsHz ? loopMarginsMany(sys, sweeps.map((x) => x.id), { scale }) : loopMarginsFromSweeps(sys, sweeps, { scale });
   const margins = new Map(marginList.map((m) => [m.key, m]));
   const cache = new Map<string, BlackmanResult>();
+  const pencils = new Map<number, FullPencil>();
   const loops: LoopReport[] = d.loops.map((loop) => {
     const { returnRatio: _sweep, ...rest } = loop;
     void _sweep;
-    return { loop: rest, regulation: loopRegulation(sys, loop, { scale, cache }), margins: margins.get(loop.key)! };
+    return { loop: rest, regulation: loopRegulation(sys, loop, { scale, cache, pencils }), margins: margins.get(loop.key)! };
   });
   const hasTransfer = sys.b.some((v) => v !== 0) && sys.c.some((v) => v !== 0);
   // one pole computation of the system as analysed serves doublets, sensitivity and step response

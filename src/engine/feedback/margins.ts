@@ -101,7 +101,8 @@ function marginsFrom(
     result.status = 'no-crossover';
     result.message = mags[0] < 1 ? `${key}: |T| stays below 1 over the sweep, no crossover` : `${key}: |T| stays above 1 up to ${grid[grid.length - 1].toPrecision(3)} Hz`;
   } else {
-    const fu = bisectLog(grid[cross - 1], grid[cross], (f) => cabs(at(f).value ?? { re: 0, im: 0 }) - 1);
+    // to 1e-9 in |T| − 1 and in phase (rad): far below what a margin is read to, and few factors
+    const fu = bisectLog(grid[cross - 1], grid[cross], (f) => cabs(at(f).value ?? { re: 0, im: 0 }) - 1, 60, 1e-9, 1e-9);
     result.unityGainHz = fu;
     const ph = unwrapNear(carg(at(fu).value!), phase[cross - 1]);
     // reported in (−180°, 180°]: whole turns picked up by the grid unwrap carry no meaning here
@@ -111,7 +112,7 @@ function marginsFrom(
   const pc = phase.findIndex((p, i) => i > 0 && phase[i - 1] > -Math.PI && p <= -Math.PI);
   if (pc > 0) {
     const ref = phase[pc - 1];
-    const fp = bisectLog(grid[pc - 1], grid[pc], (f) => unwrapNear(carg(at(f).value!), ref) + Math.PI);
+    const fp = bisectLog(grid[pc - 1], grid[pc], (f) => unwrapNear(carg(at(f).value!), ref) + Math.PI, 60, 1e-9, 1e-9);
     result.phaseCrossHz = fp;
     result.gainMarginDb = -20 * Math.log10(cabs(at(fp).value!));
   }
@@ -126,13 +127,13 @@ function unwrapNear(a: number, ref: number): number {
 
 /** Root of g between f1 and f2 (opposite signs at the ends), on log f: false position with the
  *  Illinois modification (Dowell & Jarratt 1971), which keeps bracketing and converges superlinearly. */
-export function bisectLog(f1: number, f2: number, g: (f: number) => number, iterations = 60): number {
+export function bisectLog(f1: number, f2: number, g: (f: number) => number, iterations = 60, logTol = 1e-12, gTol = 1e-13): number {
   let a = Math.log(f1), b = Math.log(f2);
   let ga = g(f1), gb = g(f2);
   if (ga === 0) return f1;
   if (gb === 0) return f2;
   let side = 0;
-  for (let k = 0; k < iterations && Math.abs(b - a) > 1e-12; k++) {
+  for (let k = 0; k < iterations && Math.abs(b - a) > logTol; k++) {
     const c = (a * gb - b * ga) / (gb - ga);
     const gc = g(Math.exp(c));
     if (gc === 0 || !Number.isFinite(gc)) return Math.exp(c);
@@ -145,7 +146,7 @@ export function bisectLog(f1: number, f2: number, g: (f: number) => number, iter
       if (side === 1) gb /= 2;
       side = 1;
     }
-    if (Math.abs(gc) < 1e-13) break;
+    if (Math.abs(gc) < gTol) break;
   }
   return Math.exp((a * gb - b * ga) / (gb - ga));
 }

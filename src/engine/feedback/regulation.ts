@@ -3,11 +3,11 @@
 // multiplies most. Linear small-signal estimate at one frequency (DC when the loop is active there,
 // else where its gain peaks).
 import type { MnaSystem } from '../types';
-import { blackmanAt } from './blackman';
-import type { BlackmanNode, BlackmanResult } from './blackman';
+import { blackmanAt, fullPencil } from './blackman';
+import type { BlackmanNode, BlackmanResult, FullPencil } from './blackman';
 import type { Loop } from './loops';
 import { cabs } from './cx';
-import { sourceStamps, nodeLabel } from './pencil';
+import { scaledG, sourceStamps, nodeLabel } from './pencil';
 
 /** A factor must pass this (×1.5 or ÷1.5) before the loop is said to hold anything there. */
 export const SIGNIFICANT_FACTOR = 1.5;
@@ -38,7 +38,7 @@ export interface Regulation {
  *  there (e.g. closed only through a capacitor), at the frequency where its cycle gain peaks. */
 export function loopRegulation(
   sys: MnaSystem, loop: Loop,
-  opts: { scale?: Record<string, number>; fHz?: number; cache?: Map<string, BlackmanResult> } = {},
+  opts: { scale?: Record<string, number>; fHz?: number; cache?: Map<string, BlackmanResult>; pencils?: Map<number, FullPencil> } = {},
 ): Regulation {
   const common = { ...opts, loopId: loop.id, preferNets: loop.nets };
   if (opts.fHz !== undefined) return regulationOf(sys, loop.key, common);
@@ -50,12 +50,21 @@ export function loopRegulation(
 
 export function regulationOf(
   sys: MnaSystem, key: string,
-  opts: { scale?: Record<string, number>; fHz?: number; loopId?: string; preferNets?: string[]; cache?: Map<string, BlackmanResult> } = {},
+  opts: {
+    scale?: Record<string, number>; fHz?: number; loopId?: string; preferNets?: string[]; cache?: Map<string, BlackmanResult>;
+    /** Full factors by frequency, shared by the keys analysed at that frequency (filled as needed). */
+    pencils?: Map<number, FullPencil>;
+  } = {},
 ): Regulation {
   const atHz = opts.fHz ?? 0;
   // the factors depend only on the key and the frequency; loops sharing a key share them
   const memo = `${key}@${atHz}`;
-  const b = opts.cache?.get(memo) ?? blackmanAt(sys, key, { fHz: atHz, scale: opts.scale });
+  let shared = opts.pencils?.get(atHz);
+  if (opts.pencils && !shared && !opts.cache?.has(memo)) {
+    shared = fullPencil(sys, scaledG(sys, sourceStamps(sys), opts.scale ?? {}), atHz);
+    opts.pencils.set(atHz, shared);
+  }
+  const b = opts.cache?.get(memo) ?? blackmanAt(sys, key, { fHz: atHz, scale: opts.scale, shared });
   opts.cache?.set(memo, b);
   const base = { loopId: opts.loopId ?? key, key, atHz, status: b.status, message: b.message, nodes: b.nodes };
   if (b.status !== 'ok') return { ...base, holdsVoltage: null, holdsCurrent: null, summary: b.message ?? '' };
