@@ -7,6 +7,7 @@ const benches: Record<string, () => unknown> = {
   eig: () => runEigBench(),
   analysis: async () => (await import('./analysis-bench')).runAnalysisBench(),
   feedback: () => runFeedbackBench(),
+  scaling: async () => (await import('./scaling-bench')).runScalingBench(),
 };
 
 const wanted = process.argv.slice(2);
