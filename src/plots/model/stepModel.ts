@@ -34,7 +34,9 @@ export function stepModel(input: StepInput, opts: StepOptions = {}): Scene {
   const xs = logT ? logScale(tLo, tHi, left, left + w) : linearScale(tLo, tHi, left, left + w);
   const yInf = input.finalValue;
   const ye = extent([...y, yInf, 0]) as [number, number];
-  const dy = niceDomain(ye[0], ye[1], 8, [niceStep(ye[1] - ye[0] || 1, 6)]);
+  // SI-prefixed tick labels (3 G, not 3000000000) keep the y axis narrow enough for the side panel.
+  const siLabel = (v: number) => formatSi(v, '', { trim: true, digits: 3 });
+  const dy = niceDomain(ye[0], ye[1], 8, [niceStep(ye[1] - ye[0] || 1, 6)], siLabel);
   const top1: Panel = { id: 'y', x: left, y: top, w, h: hY, xs, ys: linearScale(dy.lo, dy.hi, top + hY, top) };
   const eY = top + hY + gap;
   const tTicks = logT ? logTicks(tLo, tHi, 's') : linearTicks(tLo, tHi, 6, (v) => formatSi(v, 's', { trim: true, digits: 4 }));
@@ -49,7 +51,7 @@ export function stepModel(input: StepInput, opts: StepOptions = {}): Scene {
     const yline = top1.ys.map(yInf);
     scene.items.push({ kind: 'line', role: 'final-value', clip: 'y', x1: left, y1: yline, x2: left + w, y2: yline, style: LINES.reference });
     const below = yline - top < 14; // keep the label inside the panel
-    scene.items.push({ kind: 'text', role: 'final-value-label', x: left + w - 4, y: below ? yline + 3 : yline - 3, text: `y∞ = ${formatPlain(yInf)}`, anchor: 'end', baseline: below ? 'hanging' : 'auto', size: FONT_SIZE - 1, fill: PALETTE.inkSoft });
+    scene.items.push({ kind: 'text', role: 'final-value-label', x: left + w - 4, y: below ? yline + 3 : yline - 3, text: `y∞ = ${siLabel(yInf)}`, anchor: 'end', baseline: below ? 'hanging' : 'auto', size: FONT_SIZE - 1, fill: PALETTE.inkSoft });
     err = y.map((v) => { const e = Math.abs(v - yInf) / Math.abs(yInf); return e > 0 ? e : null; });
     const tols = input.settling.map((s) => s.tolerance).filter((e) => e > 0);
     const eMax = Math.max(1, ...err.filter((e): e is number => e !== null));
