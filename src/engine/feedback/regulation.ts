@@ -6,6 +6,7 @@ import type { MnaSystem } from '../types';
 import { blackmanAt, fullPencil } from './blackman';
 import type { BlackmanNode, BlackmanResult, FullPencil } from './blackman';
 import type { Loop } from './loops';
+import { portFactor } from './portInto';
 import { cabs } from './cx';
 import { scaledG, sourceStamps, nodeLabel } from './pencil';
 
@@ -19,6 +20,10 @@ export interface HeldQuantity {
   factor: number;
   /** Words, e.g. "holds V(x) — impedance ÷ 48". */
   text: string;
+  /** Set when the factor is that of the impedance looking into this part at the node (not the
+   *  node's impedance to ground): a loaded node keeps its load's impedance, the part's side alone
+   *  is what the loop raises (e.g. into a regulated cascode's drain). */
+  into?: string;
 }
 
 export interface Regulation {
@@ -40,7 +45,7 @@ export function loopRegulation(
   sys: MnaSystem, loop: Loop,
   opts: { scale?: Record<string, number>; fHz?: number; cache?: Map<string, BlackmanResult>; pencils?: Map<number, FullPencil> } = {},
 ): Regulation {
-  const common = { ...opts, loopId: loop.id, preferNets: loop.nets };
+  const common = { ...opts, loopId: loop.id, preferNets: loop.nets, parts: loop.parts };
   if (opts.fHz !== undefined) return regulationOf(sys, loop.key, common);
   const dc = regulationOf(sys, loop.key, { ...common, fHz: 0 });
   if (dc.holdsVoltage || dc.holdsCurrent || loop.peakAtHz === 0) return dc;
@@ -54,6 +59,9 @@ export function regulationOf(
     scale?: Record<string, number>; fHz?: number; loopId?: string; preferNets?: string[]; cache?: Map<string, BlackmanResult>;
     /** Full factors by frequency, shared by the keys analysed at that frequency (filled as needed). */
     pencils?: Map<number, FullPencil>;
+    /** Parts of the loop: when no node impedance to ground is raised, the impedance looking into
+     *  each of them at their output nodes is tried (portInto.ts). */
+    parts?: string[];
   } = {},
 ): Regulation {
   const atHz = opts.fHz ?? 0;
@@ -90,12 +98,43 @@ export function regulationOf(
       holdsCurrent = { node: pick.node, factor: f, text: `holds the current into ${pick.node} — impedance × ${fmt(f)}` };
     }
   }
+  if (!holdsCurrent && opts.parts?.length) holdsCurrent = heldInto(sys, key, opts.parts, atHz, opts.scale);
   const parts = [holdsVoltage?.text, holdsCurrent?.text].filter(Boolean);
   const where = atHz > 0 ? ` at ${fmt(atHz)} Hz` : ' at DC';
   const summary = parts.length
     ? `${key}: ${parts.join('; ')}${where} (linear small-signal estimate)`
     : `${key}: changes no node impedance by more than ×/÷ ${SIGNIFICANT_FACTOR}${where} (linear small-signal estimate)`;
   return { ...base, holdsVoltage, holdsCurrent, summary };
+}
+
+/** The largest raise of an impedance looking into one of the loop's parts at a node it drives
+ *  (output pins of its sources) that other parts share; null below SIGNIFICANT_FACTOR. */
+function heldInto(sys: MnaSystem, key: string, parts: string[], fHz: number, scale?: Record<string, number>): HeldQuantity | null {
+  let best: HeldQuantity | null = null;
+  const stamps = sourceStamps(sys);
+  for (const part of parts) {
+    const outs = new Set<number>();
+    for (const s of stamps) if (s.part === part) for (const v of [s.p, s.n]) if (v >= 0 && v < sys.nodeCount && !sys.nodeNames[v].includes('#')) outs.add(v);
+    for (const node of outs) {
+      const shared = sys.elements.some((e) => e.part !== part && e.type !== 'isource' && touches(e, node));
+      if (!shared) continue;
+      const pf = portFactor(sys, key, part, node, { fHz, scale });
+      if (!pf) continue;
+      const f = cabs(pf.factor);
+      if (f > SIGNIFICANT_FACTOR && (!best || f > best.factor)) {
+        best = { node: pf.node, factor: f, into: part, text: `holds the current into ${pf.node} — impedance × ${fmt(f)} looking into ${part}` };
+      }
+    }
+  }
+  return best;
+}
+
+function touches(e: MnaSystem['elements'][number], node: number): boolean {
+  switch (e.type) {
+    case 'conductance': case 'capacitance': case 'inductance': return e.a === node || e.b === node;
+    case 'vccs': case 'vcvs': return [e.p, e.n, e.cp, e.cn].includes(node);
+    default: return e.p === node || e.n === node;
+  }
 }
 
 /** Three significant digits, SI-free (factors and Hz). */
