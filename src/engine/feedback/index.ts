@@ -13,6 +13,7 @@ import type { LoopMargins } from './margins';
 import { boosterChecks, findDoublets } from './doublets';
 import type { BoosterCheck, DoubletResult } from './doublets';
 import type { BlackmanResult, FullPencil } from './blackman';
+import type { SplitNetwork } from './portInto';
 import { poleSensitivity } from './sensitivity';
 import { stepResponse } from './step';
 import type { StepResponse } from './step';
@@ -111,10 +112,11 @@ export function analyzeFeedbackSystem(sys: MnaSystem, opts: FeedbackOptions = {}
   const margins = new Map(marginList.map((m) => [m.key, m]));
   const cache = new Map<string, BlackmanResult>();
   const pencils = new Map<number, FullPencil>();
+  const splits = new Map<string, SplitNetwork | null>();
   const loops: LoopReport[] = d.loops.map((loop) => {
     const { returnRatio: _sweep, ...rest } = loop;
     void _sweep;
-    return { loop: rest, regulation: loopRegulation(sys, loop, { scale, cache, pencils }), margins: margins.get(loop.key)! };
+    return { loop: rest, regulation: loopRegulation(sys, loop, { scale, cache, pencils, splits }), margins: margins.get(loop.key)! };
   });
   const hasTransfer = sys.b.some((v) => v !== 0) && sys.c.some((v) => v !== 0);
   // one pole computation of the system as analysed serves doublets, sensitivity and step response

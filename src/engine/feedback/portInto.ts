@@ -3,12 +3,14 @@
 // designer's "Rout of the current source" is the impedance of the part side alone. The node is split
 // in two (the part's own elements move to a fresh unknown X′, everything else stays), and Blackman's
 // formula (Blackman 1943) is applied at X′: Z = Z⁰·(1 + T_sc)/(1 + T_oc), T_sc with X′ shorted to
-// ground, T_oc with X′ open (the part's terminal current held at zero).
+// ground, T_oc with X′ open (the part's terminal current held at zero). One factor of the split
+// network per (part, node, frequency) serves every key; the key-removed quantities follow by
+// Sherman–Morrison as in blackman.ts.
 import type { Cx, Element, MnaSystem } from '../types';
-import { PencilAt, addRankOne, scaledG, sourceStamps, uVector, vVector } from './pencil';
+import { PencilAt, scaledG, sourceStamps, uVector, vVector } from './pencil';
 import type { SourceStamp } from './pencil';
 import { scaleStamp } from './returnRatio';
-import { cadd, cdiv, cmul, csub, cx } from './cx';
+import { cabs, cadd, cdiv, cmul, csub, cx } from './cx';
 
 export interface PortFactor {
   part: string;
@@ -20,18 +22,25 @@ export interface PortFactor {
   factor: Cx;
 }
 
-/** Factor looking into `part` at node index `node`; null when the split network is singular, the
- *  part has no element there, or the key is unknown. */
-export function portFactor(
-  sys: MnaSystem, key: string, part: string, node: number, opts: { fHz?: number; scale?: Record<string, number> } = {},
-): PortFactor | null {
+/** The network with `part`'s connections at a node moved to a fresh last unknown X′, factored at
+ *  one frequency; shared by every key (Sherman–Morrison per key, as in blackman.ts). */
+export interface SplitNetwork {
+  part: string;
+  node: number;
+  m: number;
+  pencil: PencilAt;
+  /** Impedance to ground at X′ with everything in place. */
+  z: Cx;
+}
+
+export function splitNetwork(
+  sys: MnaSystem, part: string, node: number, opts: { fHz?: number; scale?: Record<string, number> } = {},
+): SplitNetwork | null {
+  if (node < 0 || node >= sys.nodeCount) return null;
   const scale = opts.scale ?? {};
-  const stamps = sourceStamps(sys);
-  const raw = stamps.find((s) => s.id === key);
-  if (!raw || node < 0 || node >= sys.nodeCount) return null;
   const n = sys.n;
-  const m = n + 1; // X′ is the last unknown
-  const G = embed(scaledG(sys, stamps, scale), n, m);
+  const m = n + 1;
+  const G = embed(scaledG(sys, sourceStamps(sys), scale), n, m);
   const C = embed(sys.C, n, m);
   let moved = false;
   for (const el of sys.elements) {
@@ -40,33 +49,42 @@ export function portFactor(
     moved = moveElement(G, C, m, sys.nodeCount, el, node, n, k) || moved;
   }
   if (!moved) return null;
-  const remap = (v: number) => (v === node ? n : v);
-  let s: SourceStamp = scaleStamp(raw, scale[key]);
-  if (s.part === part) s = { ...s, uRows: s.uRows.map(remap), cp: remap(s.cp), cn: remap(s.cn) };
-  const G0 = Float64Array.from(G);
-  addRankOne(G0, m, s, -1);
-  const omega = 2 * Math.PI * (opts.fHz ?? 0);
-  const full = new PencilAt(G, C, m, omega);
-  const cut = new PencilAt(G0, C, m, omega);
-  if (full.singular || cut.singular) return null;
+  const pencil = new PencilAt(G, C, m, 2 * Math.PI * (opts.fHz ?? 0));
+  if (pencil.singular) return null;
   const e = new Float64Array(m);
   e[n] = 1;
-  const xf = full.solve(e);
-  const x0 = cut.solve(e);
-  const z = cx(xf.re[n], xf.im[n]);
-  const z0 = cx(x0.re[n], x0.im[n]);
-  if (z0.re === 0 && z0.im === 0) return null;
+  const x = pencil.solve(e);
+  return { part, node, m, pencil, z: cx(x.re[n], x.im[n]) };
+}
+
+/** Factor looking into the split part for one key; null when the key is unknown or the
+ *  key-removed split network is singular (1 − a ≈ 0). */
+export function portFactor(sys: MnaSystem, key: string, split: SplitNetwork, scale: Record<string, number> = {}): PortFactor | null {
+  const raw = sourceStamps(sys).find((s) => s.id === key);
+  if (!raw) return null;
+  const { m, node, pencil, z } = split;
+  const x = m - 1;
+  const remap = (v: number) => (v === node ? x : v);
+  let s: SourceStamp = scaleStamp(raw, scale[key]);
+  if (s.part === split.part) s = { ...s, uRows: s.uRows.map(remap), cp: remap(s.cp), cn: remap(s.cn) };
   const u = uVector(s, m);
   const v = vVector(s, m);
-  const m0u = cut.solve(u);
-  const vm0 = cut.solveTransposed(v);
-  let tOc = cx(0);
-  for (let i = 0; i < m; i++) if (v[i]) tOc = cadd(tOc, cmul(cx(v[i]), cx(m0u.re[i], m0u.im[i])));
+  const p = pencil.solve(u); // M⁻¹u
+  const q = pencil.solveTransposed(v); // (vᵀM⁻¹)ᵀ
+  let a = cx(0);
+  for (let i = 0; i < m; i++) if (v[i]) a = cadd(a, cmul(cx(v[i]), cx(p.re[i], p.im[i])));
+  const delta = csub(cx(1), a);
+  if (cabs(delta) <= 1e-9 * Math.max(1, cabs(a))) return null;
+  const px = cx(p.re[x], p.im[x]), qx = cx(q.re[x], q.im[x]);
+  // key removed (Sherman–Morrison): Z⁰ = Z + p_X q_X/(1 − a), M⁰⁻¹u = p/(1 − a), vᵀM⁰⁻¹ = qᵀ/(1 − a)
+  const z0 = cadd(z, cdiv(cmul(px, qx), delta)!);
+  if (cabs(z0) === 0) return null;
+  const tOc = cdiv(a, delta)!;
   // T_sc = T_oc − (vᵀM⁰⁻¹e_X)(e_XᵀM⁰⁻¹u)/Z⁰_X (Schur complement, as in blackman.ts)
-  const tSc = csub(tOc, cdiv(cmul(cx(vm0.re[n], vm0.im[n]), cx(m0u.re[n], m0u.im[n])), z0)!);
+  const tSc = csub(tOc, cdiv(cdiv(cmul(qx, px), cmul(delta, delta))!, z0)!);
   const factor = cdiv(cadd(cx(1), tSc), cadd(cx(1), tOc));
   if (!factor) return null;
-  return { part, node: sys.nodeNames[node], z, z0, factor };
+  return { part: split.part, node: sys.nodeNames[node], z, z0, factor };
 }
 
 function embed(A: Float64Array, n: number, m: number): Float64Array {
@@ -80,27 +98,20 @@ function embed(A: Float64Array, n: number, m: number): Float64Array {
  *  scaled source); a branch element's row and column entries move as they are. */
 function moveElement(G: Float64Array, C: Float64Array, m: number, nodeCount: number, el: Element, node: number, to: number, k: number): boolean {
   const map = (v: number) => (v === node ? to : v);
-  const add = (M: Float64Array, i: number, j: number, val: number) => { if (i >= 0 && j >= 0) M[i * m + j] += val; };
-  const twoTerminal = (M: Float64Array, a: number, b: number, val: number, sign: number) => {
-    add(M, a, a, sign * val); add(M, b, b, sign * val); add(M, a, b, -sign * val); add(M, b, a, -sign * val);
-  };
-  const vccs = (p: number, q: number, cp: number, cn: number, gm: number, sign: number) => {
-    add(G, p, cp, sign * gm); add(G, p, cn, -sign * gm); add(G, q, cp, -sign * gm); add(G, q, cn, sign * gm);
-  };
   switch (el.type) {
     case 'conductance':
     case 'capacitance': {
       if (el.a !== node && el.b !== node) return false;
       const M = el.type === 'conductance' ? G : C;
       const val = el.type === 'conductance' ? el.g : el.c;
-      twoTerminal(M, el.a, el.b, val, -1);
-      twoTerminal(M, map(el.a), map(el.b), val, 1);
+      stampTwoTerminal(M, m, el.a, el.b, -val);
+      stampTwoTerminal(M, m, map(el.a), map(el.b), val);
       return true;
     }
     case 'vccs': {
-      if (![el.p, el.n, el.cp, el.cn].includes(node)) return false;
-      vccs(el.p, el.n, el.cp, el.cn, el.gm * k, -1);
-      vccs(map(el.p), map(el.n), map(el.cp), map(el.cn), el.gm * k, 1);
+      if (el.p !== node && el.n !== node && el.cp !== node && el.cn !== node) return false;
+      stampVccs(G, m, el.p, el.n, el.cp, el.cn, -el.gm * k);
+      stampVccs(G, m, map(el.p), map(el.n), map(el.cp), map(el.cn), el.gm * k);
       return true;
     }
     case 'vcvs':
@@ -116,4 +127,16 @@ function moveElement(G: Float64Array, C: Float64Array, m: number, nodeCount: num
     default:
       return false;
   }
+}
+
+function addAt(M: Float64Array, m: number, i: number, j: number, val: number): void {
+  if (i >= 0 && j >= 0) M[i * m + j] += val;
+}
+
+function stampTwoTerminal(M: Float64Array, m: number, a: number, b: number, val: number): void {
+  addAt(M, m, a, a, val); addAt(M, m, b, b, val); addAt(M, m, a, b, -val); addAt(M, m, b, a, -val);
+}
+
+function stampVccs(G: Float64Array, m: number, p: number, q: number, cp: number, cn: number, gm: number): void {
+  addAt(G, m, p, cp, gm); addAt(G, m, p, cn, -gm); addAt(G, m, q, cp, -gm); addAt(G, m, q, cn, gm);
 }

@@ -6,7 +6,8 @@ import type { MnaSystem } from '../types';
 import { blackmanAt, fullPencil } from './blackman';
 import type { BlackmanNode, BlackmanResult, FullPencil } from './blackman';
 import type { Loop } from './loops';
-import { portFactor } from './portInto';
+import { portFactor, splitNetwork } from './portInto';
+import type { SplitNetwork } from './portInto';
 import { cabs } from './cx';
 import { scaledG, sourceStamps, nodeLabel } from './pencil';
 
@@ -43,7 +44,10 @@ export interface Regulation {
  *  there (e.g. closed only through a capacitor), at the frequency where its cycle gain peaks. */
 export function loopRegulation(
   sys: MnaSystem, loop: Loop,
-  opts: { scale?: Record<string, number>; fHz?: number; cache?: Map<string, BlackmanResult>; pencils?: Map<number, FullPencil> } = {},
+  opts: {
+    scale?: Record<string, number>; fHz?: number; cache?: Map<string, BlackmanResult>; pencils?: Map<number, FullPencil>;
+    splits?: Map<string, SplitNetwork | null>;
+  } = {},
 ): Regulation {
   const common = { ...opts, loopId: loop.id, preferNets: loop.nets, parts: loop.parts };
   if (opts.fHz !== undefined) return regulationOf(sys, loop.key, common);
@@ -62,6 +66,8 @@ export function regulationOf(
     /** Parts of the loop: when no node impedance to ground is raised, the impedance looking into
      *  each of them at their output nodes is tried (portInto.ts). */
     parts?: string[];
+    /** Split networks by "part@node@f", shared across keys (filled as needed). */
+    splits?: Map<string, SplitNetwork | null>;
   } = {},
 ): Regulation {
   const atHz = opts.fHz ?? 0;
@@ -98,7 +104,7 @@ export function regulationOf(
       holdsCurrent = { node: pick.node, factor: f, text: `holds the current into ${pick.node} — impedance × ${fmt(f)}` };
     }
   }
-  if (!holdsCurrent && opts.parts?.length) holdsCurrent = heldInto(sys, key, opts.parts, atHz, opts.scale);
+  if (!holdsCurrent && opts.parts?.length) holdsCurrent = heldInto(sys, key, opts.parts, atHz, opts.scale, opts.splits ?? new Map());
   const parts = [holdsVoltage?.text, holdsCurrent?.text].filter(Boolean);
   const where = atHz > 0 ? ` at ${fmt(atHz)} Hz` : ' at DC';
   const summary = parts.length
@@ -107,18 +113,28 @@ export function regulationOf(
   return { ...base, holdsVoltage, holdsCurrent, summary };
 }
 
-/** The largest raise of an impedance looking into one of the loop's parts at a node it drives
- *  (output pins of its sources) that other parts share; null below SIGNIFICANT_FACTOR. */
-function heldInto(sys: MnaSystem, key: string, parts: string[], fHz: number, scale?: Record<string, number>): HeldQuantity | null {
+/** The largest raise of an impedance looking into one of the loop's parts at a node it drives with
+ *  a current (a transistor's drain or collector: the p pin of its gm; an amplifier's output) that
+ *  other parts share; null below SIGNIFICANT_FACTOR. */
+function heldInto(
+  sys: MnaSystem, key: string, parts: string[], fHz: number, scale: Record<string, number> | undefined, splits: Map<string, SplitNetwork | null>,
+): HeldQuantity | null {
   let best: HeldQuantity | null = null;
   const stamps = sourceStamps(sys);
   for (const part of parts) {
     const outs = new Set<number>();
-    for (const s of stamps) if (s.part === part) for (const v of [s.p, s.n]) if (v >= 0 && v < sys.nodeCount && !sys.nodeNames[v].includes('#')) outs.add(v);
+    for (const s of stamps) {
+      if (s.part !== part) continue;
+      const v = s.role === 'out' ? Math.max(s.p, s.n) : s.role === 'gm' ? s.p : -1;
+      if (v >= 0 && v < sys.nodeCount && !sys.nodeNames[v].includes('#')) outs.add(v);
+    }
     for (const node of outs) {
       const shared = sys.elements.some((e) => e.part !== part && e.type !== 'isource' && touches(e, node));
       if (!shared) continue;
-      const pf = portFactor(sys, key, part, node, { fHz, scale });
+      const memo = `${part}@${node}@${fHz}`;
+      if (!splits.has(memo)) splits.set(memo, splitNetwork(sys, part, node, { fHz, scale }));
+      const split = splits.get(memo);
+      const pf = split ? portFactor(sys, key, split, scale) : null;
       if (!pf) continue;
       const f = cabs(pf.factor);
       if (f > SIGNIFICANT_FACTOR && (!best || f > best.factor)) {
