@@ -12,6 +12,7 @@ import { emptyDocument } from '../../src/schematic/document';
 import { documentToNetlist } from '../../src/schematic/toNetlist';
 import { EXAMPLE_DRAWINGS } from '../../src/examples/index';
 import { createLiveStore } from '../../src/live/store';
+import type { LiveStore } from '../../src/live/types';
 import { applyEdit, chooseEdit, rng, type EditContext } from './randomEdits';
 import { checkEditor, checkLive, nonFinitePaths, syncRunner } from './appChecks';
 
@@ -25,11 +26,30 @@ const RUNS = [
 const EDITS_PER_RUN = 250;
 /** The analysis runs every ANALYZE_EVERY edits; the feedback stage every FEEDBACK_EVERY-th run. */
 const ANALYZE_EVERY = 4;
-const FEEDBACK_EVERY = 5;
+const FEEDBACK_EVERY = 8;
 /** Save → open round trip of the drawing every ROUND_TRIP_EVERY edits (and after every open). */
 const ROUND_TRIP_EVERY = 3;
 
 const clone = (d: DrawingDocument) => structuredClone(d);
+
+const FREQUENCIES = [0, 1, 1e3, 1e6, 1e9, 1e12, -5, NaN, Infinity, 1e308, 5e-324];
+
+/** A random change of the live settings: frequency, colour mode, a loop selected or switched. */
+function changeSettings(store: LiveStore, r: () => number): string {
+  const st = store.getState();
+  const loops = Object.keys(st.loops);
+  const u = r();
+  if (u < 0.4) {
+    const f = FREQUENCIES[Math.floor(r() * FREQUENCIES.length)];
+    store.actions.setFrequency(f);
+    return `frequency ${f}`;
+  }
+  if (u < 0.55) { store.actions.setColorMode(r() < 0.5 ? 'timeConstant' : 'impedance'); return 'colour mode'; }
+  const id = loops.length && r() < 0.8 ? loops[Math.floor(r() * loops.length)] : 'no-such-loop';
+  if (u < 0.75) { store.actions.selectLoop(id); return `select loop ${id}`; }
+  store.actions.toggleLoop(id);
+  return `toggle loop ${id}`;
+}
 
 function fuzzRun(seed: number, start: DrawingDocument) {
   const editor = createEditor(start);
@@ -91,6 +111,9 @@ function fuzzRun(seed: number, start: DrawingDocument) {
     if (!converted.netlist) expect(converted.issues.some((i) => i.severity === 'error'), `${where()}: no netlist and no error named`).toBe(true);
     if (step % ANALYZE_EVERY === ANALYZE_EVERY - 1) {
       store.actions.submit(editor.document);
+      expect(checkLive(store.getState()), where()).toEqual([]);
+      // Now and then the overlay settings change too, absurd frequencies included.
+      if (c.r() < 0.15) what = `${what}; ${changeSettings(store, c.r)}`;
       const st = store.getState();
       expect(checkLive(st), where()).toEqual([]);
       if (st.netlist) stats.analysed++;

@@ -5,7 +5,7 @@ import type { Editor } from '../../src/editor/types';
 import type { EditorActions } from '../../src/editor/commands';
 import { drive } from '../../src/editor/driver';
 import { serializeClip, clipOf } from '../../src/editor/clipboard';
-import type { ItemId, PartId, PartRecord, Rotation, SymbolKind } from '../../src/schematic/document';
+import { pinKey, type ItemId, type PartId, type PartRecord, type Rotation, type SymbolKind } from '../../src/schematic/document';
 import { loadDrawing, saveDrawing } from '../../src/schematic/file';
 import { placedPins, SYMBOL_KINDS, symbolOf } from '../../src/schematic/symbols';
 import { EXAMPLE_DRAWINGS } from '../../src/examples/index';
@@ -119,8 +119,17 @@ export function applyEdit(kind: EditKind, c: EditContext): string {
     }
     case 'fix': {
       // What a designer does with the list of errors: give a good value, or delete the part.
-      const errors = documentToNetlist(editor.document).issues.filter((i) => i.severity === 'error' && i.part);
-      if (errors.length === 0) return 'fix (nothing to fix)';
+      const conv = documentToNetlist(editor.document);
+      const errors = conv.issues.filter((i) => i.severity === 'error' && i.part);
+      if (errors.length === 0) {
+        // the engine's "output is ground" names no part: the designer moves the marker away
+        const grounded = Object.values(editor.document.parts).find((p) => p.kind === 'output' && conv.netOfPin[pinKey({ part: p.id, pin: 'p' })] === '0');
+        if (!grounded) return 'fix (nothing to fix)';
+        d.key('Escape');
+        editor.select([grounded.id]);
+        d.key('Delete');
+        return `fix: output marker ${grounded.ref} taken off ground`;
+      }
       const e = pickOf(r, errors);
       const part = editor.document.parts[e.part!];
       const spec = e.code === 'bad-value' && part ? symbolOf(part.kind).params.find((q) => q.name === e.field) : undefined;
