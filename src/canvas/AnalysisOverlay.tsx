@@ -7,7 +7,6 @@ import type { SchematicAnnotations } from '../export/annotations';
 import type { LiveState } from '../live/types';
 import { worldToScreen, type Camera, type Point } from './camera';
 import { badgesOnScreen, wireReadout } from './overlayModel';
-import { layoutBadges } from './badgeLayout';
 import './analysis-overlay.css';
 
 interface Props {
@@ -25,7 +24,7 @@ interface Props {
 const MAX_CALLOUTS = 8;
 
 function AnalysisOverlayView({ state, ann, camera, lit, pointer, pointerNet }: Props) {
-  const placed = useMemo(() => (ann && state.doc ? layoutBadges(state.doc, ann.badges, ann.slowest ? [ann.slowest.net] : []) : []), [ann, state.doc]);
+  const placed = ann?.badges ?? [];
   const badges = useMemo(() => badgesOnScreen(placed, camera), [placed, camera]);
   if (!state.result || !state.result.ok) return <FaultCallouts state={state} camera={camera} />;
   if (!ann) return null;

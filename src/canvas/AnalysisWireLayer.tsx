@@ -6,7 +6,6 @@ import { Arrow, Circle, Group, Layer, Line } from 'react-konva';
 import type { DrawingDocument } from '../schematic/document';
 import type { SchematicAnnotations } from '../export/annotations';
 import { INK } from './theme';
-import { loopPathPoints } from './loopPath';
 import type { LoopEntry } from '../live/types';
 
 /** Loop path colour: a magenta outside the blue → amber impedance palette. */
@@ -22,12 +21,13 @@ interface Props {
   netOfWire: Map<string, string>;
   lit: ReadonlySet<string>;
   scale: number;
-  /** The selected loop (its member parts route the path) and the drawing's pin → net map. */
+  /** Unused: annotate() already routes ann.loop through the member parts (kept so callers that
+   *  still pass them type-check). */
   loop?: LoopEntry | null;
   netOfPin?: Record<string, string>;
 }
 
-function AnalysisWireLayerView({ doc, ann, netOfWire, lit, scale, loop, netOfPin }: Props) {
+function AnalysisWireLayerView({ doc, ann, netOfWire, lit, scale }: Props) {
   if (!ann) return null;
   const k = 1 / Math.max(scale, 0.3);
   const wires = Object.values(doc.wires);
@@ -52,18 +52,9 @@ function AnalysisWireLayerView({ doc, ann, netOfWire, lit, scale, loop, netOfPin
           <Circle radius={14 * k} stroke={INK} strokeWidth={1.2 * k} dash={[3 * k, 2 * k]} perfectDrawEnabled={false} />
         </Group>
       )}
-      {ann.loop && <LoopPathView points={loop && netOfPin ? routed(doc, netOfPin, loop, ann.loop.points) : ann.loop.points} k={k} />}
+      {ann.loop && <LoopPathView points={ann.loop.points} k={k} />}
     </Layer>
   );
-}
-
-function routed(doc: DrawingDocument, netOfPin: Record<string, string>, loop: LoopEntry, anchors: { x: number; y: number }[]) {
-  // annotate() gives one anchor per drawn net, closing back to the first
-  const drawn = new Set(Object.values(netOfPin));
-  const nets = loop.nets.filter((x) => drawn.has(x));
-  const open = anchors.slice(0, -1);
-  if (open.length !== nets.length) return anchors;
-  return loopPathPoints(doc, netOfPin, nets, open, loop.parts);
 }
 
 /** The loop's path: dashed segments, each with an arrowhead at its middle pointing onwards. */

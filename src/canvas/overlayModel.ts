@@ -112,17 +112,11 @@ export const MIN_BADGE_FONT_PX = 8;
 
 /** Text size of badge lines in world units (the size annotate() sizes its badge boxes for). */
 export const BADGE_TEXT_SIZE = 7;
-type Box = { x: number; y: number; width: number; height: number };
-const fallbackSize = (lines: string[]) => ({ width: Math.max(...lines.map((l) => l.length * BADGE_TEXT_SIZE * 0.58)) + 8, height: lines.length * (BADGE_TEXT_SIZE + 2) + 4 });
-
-/** World badge boxes (placed by annotate(), clear of symbols) → screen rectangles. A badge
- *  without a placed box sits up and right of its anchor. */
+/** World badge boxes (placed by annotate(), clear of symbols) → screen rectangles. */
 export function badgesOnScreen(badges: Badge[], cam: Camera): ScreenBadge[] {
   const k = cam.scale;
   return badges.map((b) => {
-    const placed = (b as Badge & { box?: Box }).box;
-    const size = fallbackSize(b.lines);
-    const box = placed ?? { x: b.anchor.x + 8, y: b.anchor.y - 8 - size.height, ...size };
+    const box = b.box;
     const fontPx = BADGE_TEXT_SIZE * k;
     return {
       net: b.net, lines: b.lines,

@@ -5,8 +5,9 @@ import type { AnalysisResult, NodeRow } from '../engine/index';
 import { formatSi, SMALL_SIGNAL_CAUTION } from '../engine/index';
 import type { DrawingDocument, Point } from '../schematic/document';
 import { computeConnectivity, GROUND_NET, type NetInfo } from '../schematic/connectivity';
-import { BADGE_TEXT_SIZE, badgeSize, type Badge, type SchematicAnnotations } from './annotations';
-import { partBox } from '../layout/model';
+import { BADGE_TEXT_SIZE, type SchematicAnnotations } from './annotations';
+import { layoutBadges, type Box, type BadgeText } from './badgeLayout';
+import { loopPathPoints } from './loopPath';
 import { colorByTimeConstant } from './tauColoring';
 import { DEFAULT_SCALE, impedanceColor, legendStops, NO_VALUE_COLOR, scaleFor, type ImpedanceScale } from './colorScale';
 
@@ -15,8 +16,9 @@ export interface AnnotateSettings {
   column?: 'frequency' | 'dc';
   /** Colour scale: fixed, or 'auto' (whole decades around the nodes' values, the default). */
   scale?: ImpedanceScale | 'auto';
-  /** The selected loop: its nets in order (as the feedback analysis lists them). */
-  loop?: { id: string; label: string; nets: string[] } | null;
+  /** The selected loop: its nets in order (as the feedback analysis lists them) and its member
+   *  parts (refs), which route the path between two nets. */
+  loop?: { id: string; label: string; nets: string[]; parts?: string[] } | null;
   /** Which nets get a badge (default all analysed nets). */
   badges?: 'all' | 'none' | string[];
   /** What colours the nets: node |Z| (default) or node time constant τ (tauColoring.ts). */
@@ -44,21 +46,6 @@ export function netAnchor(doc: DrawingDocument, net: NetInfo): Point {
   return best ? best.p : { x: net.anchor.x, y: net.anchor.y };
 }
 
-interface Rect { x: number; y: number; width: number; height: number }
-const overlap = (a: Rect, b: Rect) => a.x < b.x + b.width && b.x < a.x + a.width && a.y < b.y + b.height && b.y < a.y + a.height;
-
-/** First of eight spots around the anchor (up-right first) whose box hits nothing taken. */
-export function placeBadge(anchor: Point, size: { width: number; height: number }, taken: Rect[]): Rect {
-  const g = 8, { width: w, height: h } = size;
-  const spots = [
-    { x: anchor.x + g, y: anchor.y - g - h }, { x: anchor.x - g - w, y: anchor.y - g - h },
-    { x: anchor.x + g, y: anchor.y + g }, { x: anchor.x - g - w, y: anchor.y + g },
-    { x: anchor.x + 3 * g, y: anchor.y - 3 * g - h }, { x: anchor.x - 3 * g - w, y: anchor.y - 3 * g - h },
-    { x: anchor.x + 3 * g, y: anchor.y + 3 * g }, { x: anchor.x - 3 * g - w, y: anchor.y + 3 * g },
-  ].map((p) => ({ ...p, width: w, height: h }));
-  return spots.find((r) => !taken.some((t) => overlap(r, t))) ?? spots[0];
-}
-
 export function annotate(doc: DrawingDocument, result: AnalysisResult | null, settings: AnnotateSettings = {}): SchematicAnnotations {
   const column = settings.column ?? 'frequency';
   const out: SchematicAnnotations = { nets: {}, badges: [], slowest: null, loop: null, legend: null, caution: SMALL_SIGNAL_CAUTION };
@@ -73,17 +60,14 @@ export function annotate(doc: DrawingDocument, result: AnalysisResult | null, se
     return anchors.get(name)!;
   };
   const wanted = settings.badges ?? 'all';
-  // Symbols with their pins and text (the layout's part box) are kept clear of badges.
-  const taken: Rect[] = Object.values(doc.parts).map((p) => {
-    const b = partBox(p, []);
-    return { x: p.x + b.x, y: p.y + b.y, width: b.width, height: b.height };
-  });
+  const avoid: Box[] = [];
+  const texts: BadgeText[] = [];
   const slow = rows.find((r) => r.slowest);
   if (slow) {
     const pole = slow.openAtDc ? 'integrator' : slow.poleHz !== null ? formatSi(slow.poleHz, 'Hz') : '—';
     out.slowest = { net: slow.name, anchor: anchorOf(slow.name), label: `slowest node ${slow.name}: ${pole}` };
     // The mark's label (drawn right of and below the anchor) is kept clear of badges.
-    taken.push({ x: out.slowest.anchor.x - 10, y: out.slowest.anchor.y - 10, width: 22 + out.slowest.label.length * BADGE_TEXT_SIZE * 0.58, height: 32 });
+    avoid.push({ x: out.slowest.anchor.x - 10, y: out.slowest.anchor.y - 10, width: 22 + out.slowest.label.length * BADGE_TEXT_SIZE * 0.58, height: 32 });
   }
   const fz = result.conditions.frequencyHz;
   for (const r of rows) {
@@ -95,14 +79,18 @@ export function annotate(doc: DrawingDocument, result: AnalysisResult | null, se
     if (r.farads > 0) lines.push(`C ${formatSi(r.farads, 'F')}`);
     if (r.tau !== null) lines.push(`τ ${formatSi(r.tau, 's')}`);
     if (r.poleHz !== null) lines.push(`f ${formatSi(r.poleHz, 'Hz')}`);
-    const anchor = anchorOf(r.name);
-    const badge: Badge = { net: r.name, lines, anchor, box: placeBadge(anchor, badgeSize(lines), taken) };
-    taken.push(badge.box);
-    out.badges.push(badge);
+    texts.push({ net: r.name, lines, anchor: anchorOf(r.name) });
   }
+  // Clear of symbol bodies and of each other; the slowest node's badge is placed first.
+  out.badges = layoutBadges(doc, texts, out.slowest ? [out.slowest.net] : [], avoid)
+    .map(({ net, lines, anchor, box, leader, crowded }) => ({ net, lines, anchor, box, leader, crowded }));
   if (settings.loop) {
-    const pts = settings.loop.nets.filter((n) => byName.has(n)).map((n) => anchorOf(n));
-    if (pts.length > 0) out.loop = { loopId: settings.loop.id, label: settings.loop.label, points: [...pts, pts[0]] };
+    const nets = settings.loop.nets.filter((n) => byName.has(n));
+    const anchors = nets.map((n) => anchorOf(n));
+    if (anchors.length > 0) {
+      const points = loopPathPoints(doc, conn.netOfPin, nets, anchors, settings.loop.parts ?? []);
+      out.loop = { loopId: settings.loop.id, label: settings.loop.label, points };
+    }
   }
   const what = column === 'dc' ? 'at DC' : fz !== null ? `at ${formatSi(fz, 'Hz')}` : '';
   out.legend = { title: `node |Z| ${what}`.trim(), stops: legendStops(scale ?? DEFAULT_SCALE), noValueColor: NO_VALUE_COLOR, noValueLabel: 'open / not computed' };

@@ -17,9 +17,13 @@ export interface Badge {
   lines: string[];
   /** World point the badge points at (on the net). */
   anchor: Point;
-  /** Where the badge box goes (world units, sized for BADGE_TEXT_SIZE text), clear of symbols
-   *  and of the other badges where the space allows. */
+  /** Where the badge box goes (world units, sized for BADGE_TEXT_SIZE text), clear of symbol
+   *  bodies and of the other badges where the space allows (badgeLayout.ts). */
   box: { x: number; y: number; width: number; height: number };
+  /** The box is far enough from the anchor to need a leader line. */
+  leader: boolean;
+  /** No spot free of symbols was found (the least covering one is used). */
+  crowded: boolean;
 }
 
 /** Text size of badge lines (world units) and the box size that holds them. */
@@ -38,7 +42,8 @@ export interface SlowestMark {
 export interface LoopPath {
   loopId: string;
   label: string;
-  /** Ordered world points through the loop's nets, closing back to the first. */
+  /** Ordered world points through the loop's nets (and between two nets through the member
+   *  part joining them, loopPath.ts), closing back to the first. */
   points: Point[];
 }
 

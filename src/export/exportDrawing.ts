@@ -48,7 +48,10 @@ export function analyseDrawing(doc: DrawingDocument, opts: ExportOptions = {}): 
 
 export function annotationsFor(doc: DrawingDocument, an: DrawingAnalysis, opts: ExportOptions = {}): SchematicAnnotations {
   const loop = an.loops.loops.find((l) => l.id === opts.selectedLoop);
-  return annotate(doc, an.result, { column: opts.column, colorBy: opts.colorBy, loop: loop ? { id: loop.id, label: loop.label, nets: loop.nets } : null });
+  // Member parts (refs) route the loop path; the same list the live store keeps per loop.
+  const raw = an.loops.raw.find((l) => l.id === opts.selectedLoop);
+  const parts = raw ? [...new Set(raw.members.map((m) => m.part))] : [];
+  return annotate(doc, an.result, { column: opts.column, colorBy: opts.colorBy, loop: loop ? { id: loop.id, label: loop.label, nets: loop.nets, parts } : null });
 }
 
 export function titleBlockFor(doc: DrawingDocument, an: DrawingAnalysis, opts: ExportOptions = {}): TitleBlock {

@@ -10,7 +10,7 @@ export function liveAnnotations(state: Pick<LiveState, 'doc' | 'result' | 'setti
   const loop = settings.selectedLoopId ? state.loops[settings.selectedLoopId] : undefined;
   const ann = annotate(doc, result, {
     column: settings.frequencyHz === 0 ? 'dc' : 'frequency',
-    loop: loop ? { id: loop.id, label: loop.label, nets: loop.nets } : null,
+    loop: loop ? { id: loop.id, label: loop.label, nets: loop.nets, parts: loop.parts } : null,
     colorBy: settings.colorMode === 'timeConstant' ? 'timeConstant' : 'impedance',
   });
   return ann;

@@ -15,6 +15,9 @@ import { analyseDrawing, annotatedSvg, annotationsFor, shownSvg } from '../../sr
 import { exportOptionsOf } from '../../src/export/liveOptions';
 import { writeSvgFile } from '../../src/export/cliExport';
 import { saveDrawing } from '../../src/schematic/file';
+import { placedBounds } from '../../src/schematic/symbols';
+import { boxArea } from '../../src/export/badgeLayout';
+import { badgesOnScreen } from '../../src/canvas/overlayModel';
 
 function until(store: ReturnType<typeof createLiveStore>, ok: (s: LiveState) => boolean, ms = 30000): Promise<LiveState> {
   return new Promise((resolve, reject) => {
@@ -46,6 +49,28 @@ describe('canvas overlay and SVG export share the annotations', () => {
     const opts = exportOptionsOf(s.settings, s.loops, date);
     const exported = annotationsFor(doc, analyseDrawing(doc, opts), opts);
     expect(exported).toEqual(canvas);
+    // Badge boxes: one placement (annotate → badgeLayout), clear of symbol bodies and of each
+    // other, and the canvas draws exactly those boxes (world → screen by the camera only).
+    expect(exported.badges.map((b) => [b.net, b.box, b.leader])).toEqual(canvas.badges.map((b) => [b.net, b.box, b.leader]));
+    expect(canvas.badges.length).toBeGreaterThan(2);
+    const bodies = Object.values(doc.parts).map((p) => ({ ref: p.ref, ...placedBounds(p) }));
+    const hits = canvas.badges.flatMap((b) => bodies.filter((p) => boxArea(b.box, p) > 0).map((p) => `${b.net} on ${p.ref}`));
+    expect(hits).toEqual([]);
+    const pairs = canvas.badges.flatMap((a, i) => canvas.badges.slice(i + 1).filter((b) => boxArea(a.box, b.box) > 0).map((b) => `${a.net}/${b.net}`));
+    expect(pairs).toEqual([]);
+    const cam = { scale: 1.5, x: 40, y: -20 };
+    expect(badgesOnScreen(canvas.badges, cam).map((b) => [b.left, b.top, b.width, b.height]))
+      .toEqual(canvas.badges.map((b) => [b.box.x * 1.5 + 40, b.box.y * 1.5 - 20, b.box.width * 1.5, b.box.height * 1.5]));
+    // Loop path points: the same in both, closed, and routed through member parts' centres
+    // between the nets (the points that are not net anchors are member bodies' centres).
+    expect(exported.loop!.points).toEqual(canvas.loop!.points);
+    const pts = canvas.loop!.points;
+    expect(pts[pts.length - 1]).toEqual(pts[0]);
+    const members = new Set(s.loops[loopId].parts);
+    const centres = Object.values(doc.parts).filter((p) => members.has(p.ref)).map((p) => { const r = placedBounds(p); return { x: r.x + r.width / 2, y: r.y + r.height / 2 }; });
+    const via = pts.filter((_, i) => i % 2 === 1);
+    expect(via.length).toBeGreaterThan(0);
+    for (const p of via) expect(centres).toContainEqual(p);
     // And so the SVG text: recomputed from the drawing = drawn from what the canvas shows.
     expect(annotatedSvg(doc, opts)).toBe(shownSvg(doc, { annotations: canvas, result: s.result! }, opts));
     store.actions.dispose();

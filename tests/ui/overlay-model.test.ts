@@ -9,7 +9,7 @@ import { loadDrawing } from '../../src/schematic/file';
 import { placedBounds } from '../../src/schematic/symbols';
 import type { DrawingDocument } from '../../src/schematic/document';
 import type { Badge } from '../../src/export/annotations';
-import { boxArea, layoutBadges } from '../../src/canvas/badgeLayout';
+import { boxArea, layoutBadges } from '../../src/export/badgeLayout';
 import { formatCx, netsOfPole, parseFrequency, polesOfNet } from '../../src/canvas/overlayModel';
 import { commonSource } from '../schematic/build';
 
@@ -82,7 +82,7 @@ describe('overlay helpers', () => {
 
 describe('loop path', () => {
   it('runs from net to net through the member part that joins them', async () => {
-    const { loopPathPoints } = await import('../../src/canvas/loopPath');
+    const { loopPathPoints } = await import('../../src/export/loopPath');
     const doc = thirty();
     const d = documentToNetlist(doc);
     const a1 = Object.values(doc.parts).find((p) => p.ref === 'A1')!;

@@ -1,6 +1,6 @@
 // The selected loop's path on the schematic: through its nets in order, and between two nets
 // through the body of the loop member that joins them (so a two-net loop reads as a circuit, not
-// as one line drawn twice). Pure TS.
+// as one line drawn twice). Pure TS: annotate() routes the loop here for the export and the canvas.
 import type { DrawingDocument, Point } from '../schematic/document';
 import { pinKey } from '../schematic/document';
 import { placedBounds, placedPins } from '../schematic/symbols';

@@ -1,11 +1,11 @@
 // Badge boxes kept clear of the symbols: every badge gets a world box near its anchor that hits no
 // symbol body (placedBounds, with a small margin) and no other badge, preferring spots close to
 // the anchor and off the parts' text and the wires. Greedy in a fixed order (slowest node first,
-// then by position), so the result is deterministic. Pure TS (usable by the SVG export as well).
+// then by position), so the result is deterministic. Pure TS: annotate() places the badges here
+// and both the SVG export and the canvas overlay draw the boxes it returns.
 import type { DrawingDocument, Point } from '../schematic/document';
-import type { Badge } from '../export/annotations';
+import { badgeSize } from './annotations';
 import { placedBounds, symbolOf, toWorld } from '../schematic/symbols';
-import { BADGE_TEXT_SIZE } from './overlayModel';
 
 export interface Box { x: number; y: number; width: number; height: number }
 
@@ -14,10 +14,6 @@ const DISTANCES = [6, 12, 20, 32, 48, 70];
 
 export const boxArea = (a: Box, b: Box) =>
   Math.max(0, Math.min(a.x + a.width, b.x + b.width) - Math.max(a.x, b.x)) * Math.max(0, Math.min(a.y + a.height, b.y + b.height) - Math.max(a.y, b.y));
-
-export function badgeBoxSize(lines: string[]): { width: number; height: number } {
-  return { width: Math.max(...lines.map((l) => l.length * BADGE_TEXT_SIZE * 0.6)) + 10, height: lines.length * (BADGE_TEXT_SIZE * 1.2) + 5 };
-}
 
 /** Symbol bodies (hard obstacles) and their reference/value text (soft), in world units. */
 export function symbolObstacles(doc: DrawingDocument): { bodies: (Box & { ref: string })[]; texts: Box[] } {
@@ -60,7 +56,10 @@ function candidates(anchor: Point, w: number, h: number): Box[] {
   return out;
 }
 
-export interface PlacedBadge extends Badge {
+/** A badge to place: its net, text lines and the point on the net it belongs to. */
+export interface BadgeText { net: string; lines: string[]; anchor: Point }
+
+export interface PlacedBadge extends BadgeText {
   box: Box;
   /** Box is far enough from the anchor to need a leader line. */
   leader: boolean;
@@ -68,15 +67,17 @@ export interface PlacedBadge extends Badge {
   crowded: boolean;
 }
 
-/** Place every badge; `first` nets are placed before the others (e.g. the slowest node). */
-export function layoutBadges(doc: DrawingDocument, badges: Badge[], first: string[] = []): PlacedBadge[] {
-  const { bodies, texts } = symbolObstacles(doc);
+/** Place every badge; `first` nets are placed before the others (e.g. the slowest node);
+ *  `avoid` are further boxes to keep clear of where the space allows (e.g. the slowest node's label). */
+export function layoutBadges<B extends BadgeText>(doc: DrawingDocument, badges: B[], first: string[] = [], avoid: Box[] = []): (B & PlacedBadge)[] {
+  const symbols = symbolObstacles(doc);
+  const bodies = symbols.bodies, texts = [...symbols.texts, ...avoid];
   const wires = wireBoxes(doc);
-  const rank = (b: Badge) => (first.includes(b.net) ? first.indexOf(b.net) : first.length);
+  const rank = (b: B) => (first.includes(b.net) ? first.indexOf(b.net) : first.length);
   const order = [...badges].sort((a, b) => rank(a) - rank(b) || a.anchor.y - b.anchor.y || a.anchor.x - b.anchor.x || (a.net < b.net ? -1 : 1));
-  const placed: PlacedBadge[] = [];
+  const placed: (B & PlacedBadge)[] = [];
   for (const b of order) {
-    const { width, height } = badgeBoxSize(b.lines);
+    const { width, height } = badgeSize(b.lines);
     let best: { box: Box; cost: number; hard: number } | null = null;
     for (const [i, c] of candidates(b.anchor, width, height).entries()) {
       const hard = bodies.reduce((s, o) => s + boxArea(c, o), 0) + placed.reduce((s, o) => s + boxArea(c, o.box), 0);
