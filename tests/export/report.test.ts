@@ -2,7 +2,10 @@ import { describe, expect, it } from 'vitest';
 import { analyze } from '../../src/engine/index';
 import { drawingReport } from '../../src/export/exportDrawing';
 import { csvField } from '../../src/export/report';
-import { bodeSvg, poleZeroSvg } from '../../src/export/plotSvg';
+import { bodeModel } from '../../src/plots/model/bodeModel';
+import { splaneModel } from '../../src/plots/model/splaneModel';
+import { bodeInputFrom, splaneInputFrom } from '../../src/plots/fromEngine';
+import { toSvg } from '../../src/plots/toSvg';
 import { documentToNetlist } from '../../src/schematic/toNetlist';
 import { all, exampleDrawing, parseXml } from './fixtures';
 
@@ -76,19 +79,22 @@ describe('report export', () => {
 });
 
 describe('plot export', () => {
+  // The app's plot export: src/plots scene models serialised by toSvg (checked as XML 1.0 here).
   it('writes a Bode plot and a pole-zero map as well-formed SVG', async () => {
     const doc = await exampleDrawing('two-stage-miller-unity');
     const res = analyze(documentToNetlist(doc).netlist!);
-    const bode = parseXml(bodeSvg(res.sweep!, 'two-stage'));
+    const bode = parseXml(toSvg(bodeModel(bodeInputFrom(res, 'two-stage')!)));
     expect(bode.problems).toEqual([]);
-    const traces = all(bode.doc, 'path').filter((p) => p.getAttribute('class') === 'trace');
-    expect(traces.length).toBe(2);
-    // One path vertex per sweep point where the value is defined.
-    expect(traces[0].getAttribute('d')!.split(/[ML]/).filter((s) => s.trim()).length).toBe(res.sweep!.magDb.filter((v) => v !== null).length);
-    const pz = parseXml(poleZeroSvg(res.poles, res.zeros));
+    const mag = all(bode.doc, 'path').filter((p) => p.getAttribute('class') === 'ps-curve-mag');
+    const phase = all(bode.doc, 'path').filter((p) => p.getAttribute('class') === 'ps-curve-phase');
+    expect(mag.length).toBe(1);
+    expect(phase.length).toBe(1);
+    // One path vertex per sweep point where the value is defined (common practice: a polyline).
+    expect(mag[0].getAttribute('d')!.split(/[ML]/).filter((x) => x.trim()).length).toBe(res.sweep!.magDb.filter((v) => v !== null).length);
+    const pz = parseXml(toSvg(splaneModel(splaneInputFrom(res))));
     expect(pz.problems).toEqual([]);
-    expect(all(pz.doc, 'path').filter((p) => p.getAttribute('class') === 'pole').length).toBe(res.poles.length);
-    expect(all(pz.doc, 'circle').filter((p) => p.getAttribute('class') === 'zero').length).toBe(res.zeros.length);
-    expect(parseXml(bodeSvg({ hz: [], magDb: [], phaseDeg: [] })).problems).toEqual([]);
+    expect(all(pz.doc, 'path').filter((p) => p.getAttribute('class') === 'ps-pole').length).toBe(res.poles.length);
+    expect(all(pz.doc, 'path').filter((p) => p.getAttribute('class') === 'ps-zero').length).toBe(res.zeros.length);
+    expect(parseXml(toSvg(bodeModel({ hz: [], magDb: [], phaseDeg: [] }))).problems).toEqual([]);
   });
 });

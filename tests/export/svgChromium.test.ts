@@ -5,7 +5,9 @@ import { existsSync } from 'node:fs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { chromium, type Browser } from 'playwright-core';
 import { annotatedSvg } from '../../src/export/exportDrawing';
-import { bodeSvg } from '../../src/export/plotSvg';
+import { bodeModel } from '../../src/plots/model/bodeModel';
+import { bodeInputFrom } from '../../src/plots/fromEngine';
+import { toSvg } from '../../src/plots/toSvg';
 import { analyze } from '../../src/engine/index';
 import { documentToNetlist } from '../../src/schematic/toNetlist';
 import { exampleDrawing } from './fixtures';
@@ -60,7 +62,7 @@ describe.skipIf(!haveChromium)('SVG export in headless Chromium', () => {
   it('loads a Bode plot as a standalone image', async () => {
     const doc = await exampleDrawing('sensor-cs-miller');
     const res = analyze(documentToNetlist(doc).netlist!);
-    const svg = bodeSvg(res.sweep!, 'sensor');
+    const svg = toSvg(bodeModel(bodeInputFrom(res, 'sensor')!, { width: 480, height: 360 }));
     const page = await browser.newPage();
     await page.setContent(`<img id="img" src="data:image/svg+xml;base64,${Buffer.from(svg, 'utf8').toString('base64')}">`);
     const w = await page.evaluate(async () => { const img = document.getElementById('img') as HTMLImageElement; await img.decode(); return img.naturalWidth; });
