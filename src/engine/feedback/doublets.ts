@@ -122,6 +122,6 @@ function closedLoopBandwidth(sys: MnaSystem): number | null {
   const dc = dcTransfer(sys);
   if (dc.value === null) return null;
   const ev = transferEvaluator(sys);
-  const sw = sweepTransfer(ev, logGrid(1, 1e12, 10));
+  const sw = sweepTransfer(ev, logGrid(1, 1e12, 5)); // the band edge is refined by findBandwidth
   return findBandwidth(ev, sw, dc.value).hz;
 }

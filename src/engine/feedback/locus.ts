@@ -108,9 +108,10 @@ export function rootLocus(sys: MnaSystem, key: string, opts: LocusOptions = {}):
   return { ...base, k: ks, branches };
 }
 
-/** Smallest x in (lo, hi] where pred turns true (pred(lo) false, pred(hi) true). */
-function bisect(lo: number, hi: number, pred: (x: number) => boolean, iters = 40): number {
-  for (let i = 0; i < iters && hi - lo > 1e-12 * Math.max(1, hi); i++) {
+/** Smallest x in (lo, hi] where pred turns true (pred(lo) false, pred(hi) true), to 1e-9 relative
+ *  (each probe is a pole computation; a locus event is not read closer than that). */
+function bisect(lo: number, hi: number, pred: (x: number) => boolean, iters = 26): number {
+  for (let i = 0; i < iters && hi - lo > 1e-9 * Math.max(1, hi); i++) {
     const mid = 0.5 * (lo + hi);
     if (pred(mid)) hi = mid; else lo = mid;
   }

@@ -102,7 +102,7 @@ function marginsFrom(
     result.message = mags[0] < 1 ? `${key}: |T| stays below 1 over the sweep, no crossover` : `${key}: |T| stays above 1 up to ${grid[grid.length - 1].toPrecision(3)} Hz`;
   } else {
     // to 1e-7 in |T| − 1 and in phase (rad): far below what a margin is read to, and few factors
-    const fu = bisectLog(grid[cross - 1], grid[cross], (f) => cabs(at(f).value ?? { re: 0, im: 0 }) - 1, 60, 1e-7, 1e-7);
+    const fu = bisectLog(grid[cross - 1], grid[cross], (f) => cabs(at(f).value ?? { re: 0, im: 0 }) - 1, 20, 1e-7, 1e-7);
     result.unityGainHz = fu;
     const ph = unwrapNear(carg(at(fu).value!), phase[cross - 1]);
     // reported in (−180°, 180°]: whole turns picked up by the grid unwrap carry no meaning here
@@ -112,7 +112,7 @@ function marginsFrom(
   const pc = phase.findIndex((p, i) => i > 0 && phase[i - 1] > -Math.PI && p <= -Math.PI);
   if (pc > 0) {
     const ref = phase[pc - 1];
-    const fp = bisectLog(grid[pc - 1], grid[pc], (f) => unwrapNear(carg(at(f).value!), ref) + Math.PI, 60, 1e-7, 1e-7);
+    const fp = bisectLog(grid[pc - 1], grid[pc], (f) => unwrapNear(carg(at(f).value!), ref) + Math.PI, 20, 1e-7, 1e-7);
     result.phaseCrossHz = fp;
     result.gainMarginDb = -20 * Math.log10(cabs(at(fp).value!));
   }
