@@ -31,17 +31,34 @@ export interface AxesOptions {
   xLabels?: boolean;
 }
 
-/** Frame, grid and labels of one panel. */
+/** Estimated width of a text line (px): 0.6 em per character, a common estimate for sans-serif
+ *  digits and prefixes (no font metrics in a DOM-free model). */
+export function textWidth(text: string, size: number): number {
+  return text.length * size * 0.6;
+}
+
+/** How many x tick labels like `sample` fit side by side in `width` px with a gap of one em. */
+export function xLabelBudget(width: number, sample = '100 kHz'): number {
+  return Math.max(2, Math.floor(width / (textWidth(sample, FONT_SIZE) + FONT_SIZE)));
+}
+
+/** Frame, grid and labels of one panel. x labels whose estimated boxes would touch the previous
+ *  kept label are left out (the tick and grid line stay). */
 export function axesItems(p: Panel, xTicks: Tick[], yTicks: Tick[], opts: AxesOptions = {}): SceneItem[] {
   const out: SceneItem[] = [];
   const inX = (v: number) => { const x = p.xs.map(v); return x >= p.x - 0.5 && x <= p.x + p.w + 0.5; };
   const inY = (v: number) => { const y = p.ys.map(v); return y >= p.y - 0.5 && y <= p.y + p.h + 0.5; };
+  let lastRight = -Infinity;
   for (const t of xTicks) {
     if (!inX(t.value)) continue;
     const x = p.xs.map(t.value);
     out.push({ kind: 'line', role: t.major ? 'grid-major' : 'grid-minor', x1: x, y1: p.y, x2: x, y2: p.y + p.h, style: t.major ? LINES.gridMajor : LINES.gridMinor });
     if (t.label !== null && opts.xLabels !== false) {
       const anchor = x > p.x + p.w - 20 ? 'end' : 'middle'; // the last label stays inside the figure
+      const tw = textWidth(t.label, FONT_SIZE);
+      const l = anchor === 'end' ? x - tw : x - tw / 2;
+      if (l < lastRight + FONT_SIZE / 2) continue;
+      lastRight = l + tw;
       out.push({ kind: 'text', role: 'tick-x', x, y: p.y + p.h + 4, text: t.label, anchor, baseline: 'hanging', size: FONT_SIZE, fill: PALETTE.ink });
     }
   }

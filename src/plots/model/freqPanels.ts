@@ -3,7 +3,7 @@
 import type { FrequencyCurve } from '../types';
 import type { HoverPoint, Scene } from './scene';
 import { formatSi, linearTicks, logScale, linearScale, logTicks, niceStep, plainLabel, type Tick } from './scales';
-import { addNote, addPanel, axesItems, curveRuns, extent, type Panel } from './frame';
+import { addNote, addPanel, axesItems, xLabelBudget, curveRuns, extent, type Panel } from './frame';
 import { LINES } from './palette';
 
 export const DB_STEPS = [1, 2, 5, 10, 20, 40, 50, 100, 200] as const;
@@ -58,7 +58,7 @@ export function frequencyPanels(scene: Scene, c: FrequencyCurve, o: FreqPanelOpt
   const phase: Panel = { id: 'phase', x: left, y: phY, w, h: hPh, xs, ys: linearScale(dp.lo, dp.hi, phY + hPh, phY) };
   addPanel(scene, mag);
   addPanel(scene, phase);
-  const fTicks = logTicks(fLo, fHi, 'Hz');
+  const fTicks = logTicks(fLo, fHi, 'Hz', xLabelBudget(w));
   scene.items.push(...axesItems(mag, fTicks, dm.ticks, { xLabels: false, yTitle: `|${o.symbol}| (dB)` }));
   scene.items.push(...axesItems(phase, fTicks, dp.ticks, { xTitle: 'frequency', yTitle: `∠${o.symbol} (°)` }));
   const hz = used.map((i) => c.hz[i]);

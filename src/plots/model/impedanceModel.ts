@@ -2,7 +2,7 @@
 import type { ImpedanceInput, PlotSize } from '../types';
 import type { Scene } from './scene';
 import { decadeDomain, formatSi, logScale, logTicks } from './scales';
-import { addNote, addPanel, axesItems, curveRuns, extent, newScene, titleItem, type Panel } from './frame';
+import { addNote, addPanel, axesItems, xLabelBudget, curveRuns, extent, newScene, titleItem, type Panel } from './frame';
 import { LINES } from './palette';
 
 export function impedanceModel(input: ImpedanceInput, size: PlotSize = {}): Scene {
@@ -22,7 +22,7 @@ export function impedanceModel(input: ImpedanceInput, size: PlotSize = {}): Scen
   const w = width - left - right, h = height - top - bottom;
   const p: Panel = { id: 'z', x: left, y: top, w, h, xs: logScale(fLo, fHi, left, left + w), ys: logScale(zLo, zHi, top + h, top) };
   addPanel(scene, p);
-  scene.items.push(...axesItems(p, logTicks(fLo, fHi, 'Hz'), logTicks(zLo, zHi, 'Ω', 7), { xTitle: 'frequency', yTitle: '|Z|' }));
+  scene.items.push(...axesItems(p, logTicks(fLo, fHi, 'Hz', xLabelBudget(w)), logTicks(zLo, zHi, 'Ω', 7), { xTitle: 'frequency', yTitle: '|Z|' }));
   const hz = used.map((i) => input.hz[i]);
   scene.items.push({ kind: 'path', role: 'curve-z', clip: 'z', runs: curveRuns(p, hz, used.map((i) => input.ohms[i])), style: LINES.primary });
   for (const f of input.markHz ?? []) {

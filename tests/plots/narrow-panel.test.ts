@@ -1,0 +1,47 @@
+// Plots at the results panel's width (276 px): x tick labels must not overlap. Label boxes are
+// estimated at 0.6 em per character (common practice for sans-serif text without font metrics),
+// from each text item's anchor; the check is independent of how the model thins its labels.
+import { describe, expect, it } from 'vitest';
+import { impedanceModel } from '../../src/plots/model/impedanceModel';
+import { bodeModel } from '../../src/plots/model/bodeModel';
+import type { Scene } from '../../src/plots/model/scene';
+
+const PANEL = 276;
+const logSweep = (f0: number, f1: number, n: number) => Array.from({ length: n }, (_, i) => f0 * (f1 / f0) ** (i / (n - 1)));
+
+function tickBoxes(scene: Scene, role: string) {
+  return scene.items.flatMap((it) => {
+    if (it.kind !== 'text' || it.role !== role) return [];
+    const w = it.text.length * it.size * 0.6;
+    const left = it.anchor === 'end' ? it.x - w : it.anchor === 'middle' ? it.x - w / 2 : it.x;
+    return [{ text: it.text, left, right: left + w }];
+  });
+}
+
+function overlaps(boxes: { text: string; left: number; right: number }[]): string[] {
+  const s = [...boxes].sort((a, b) => a.left - b.left);
+  return s.slice(1).filter((b, i) => b.left < s[i].right).map((b, i) => `${s[i].text} / ${b.text}`);
+}
+
+describe('x tick labels at 276 px', () => {
+  // Ranges a designer sweeps: 1 Hz..10 GHz (10 decades), 10 Hz..1 GHz, and a narrow 1-2-5 axis.
+  const ranges: [number, number][] = [[1, 1e10], [10, 1e9], [1e3, 1e6], [1e5, 5e6]];
+  for (const [f0, f1] of ranges) {
+    it(`|Z(f)| from ${f0} to ${f1} Hz: no two labels overlap, at least two shown`, () => {
+      const hz = logSweep(f0, f1, 81);
+      const scene = impedanceModel({ node: 'out', hz, ohms: hz.map((f) => 1e4 / Math.hypot(1, f / 1e6)) }, { width: PANEL, height: 200 });
+      const boxes = tickBoxes(scene, 'tick-x');
+      expect(boxes.length).toBeGreaterThanOrEqual(2);
+      expect(overlaps(boxes)).toEqual([]);
+      for (const b of boxes) { expect(b.left).toBeGreaterThanOrEqual(0); expect(b.right).toBeLessThanOrEqual(PANEL); }
+    });
+    it(`Bode from ${f0} to ${f1} Hz: no two labels overlap`, () => {
+      const hz = logSweep(f0, f1, 81);
+      // one-pole low-pass at 1 MHz (textbook: |H| = 1/√(1+(f/fp)²), ∠H = −atan(f/fp))
+      const scene = bodeModel({ hz, magDb: hz.map((f) => -10 * Math.log10(1 + (f / 1e6) ** 2)), phaseDeg: hz.map((f) => (-Math.atan(f / 1e6) * 180) / Math.PI) }, { width: PANEL, height: 240 });
+      const boxes = tickBoxes(scene, 'tick-x');
+      expect(boxes.length).toBeGreaterThanOrEqual(2);
+      expect(overlaps(boxes)).toEqual([]);
+    });
+  }
+});
