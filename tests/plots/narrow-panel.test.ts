@@ -4,6 +4,7 @@
 import { describe, expect, it } from 'vitest';
 import { impedanceModel } from '../../src/plots/model/impedanceModel';
 import { bodeModel } from '../../src/plots/model/bodeModel';
+import { loopGainModel } from '../../src/plots/model/loopGainModel';
 import type { Scene } from '../../src/plots/model/scene';
 
 const PANEL = 276;
@@ -44,4 +45,38 @@ describe('x tick labels at 276 px', () => {
       expect(overlaps(boxes)).toEqual([]);
     });
   }
+});
+
+describe('loop-gain plot at 276 px', () => {
+  const textBox = (it: Scene['items'][number]) => {
+    if (it.kind !== 'text') throw new Error('not text');
+    const w = it.text.length * it.size * 0.6;
+    const left = it.anchor === 'end' ? it.x - w : it.anchor === 'middle' ? it.x - w / 2 : it.x;
+    return { left, right: left + w };
+  };
+  // Two-pole loop T = T0/((1+s/p1)(1+s/p2)) with invented T0 = 1000, p1 = 1 kHz, p2 = 10 GHz:
+  // crossover near T0·p1 = 1 MHz (textbook single-pole GBW), PM close to 90°, near the right edge.
+  const hz = logSweep(1, 1e7, 71);
+  const t = hz.map((f) => { const a = Math.hypot(1, f / 1e3), b = Math.hypot(1, f / 1e10); return { db: 20 * Math.log10(1000 / (a * b)), ph: -(Math.atan(f / 1e3) + Math.atan(f / 1e10)) * 180 / Math.PI }; });
+  const input = {
+    hz, magDb: t.map((x) => x.db), phaseDeg: t.map((x) => x.ph), label: 'A1.M2',
+    margins: { status: 'ok', unityGainHz: 1e6, phaseMarginDeg: 90, phaseCrossHz: null, gainMarginDb: null },
+  };
+
+  it('keeps the PM label inside the plot', () => {
+    const scene = loopGainModel(input as never, { width: PANEL, height: 240 });
+    const pm = scene.items.find((it) => it.kind === 'text' && it.role === 'phase-margin-label')!;
+    expect(pm).toBeDefined();
+    const b = textBox(pm);
+    expect(b.right).toBeLessThanOrEqual(PANEL - 18 + 0.5); // the panels' right edge
+    expect(b.left).toBeGreaterThanOrEqual(66);
+  });
+
+  it('wraps the note ("no gain margin") inside the width', () => {
+    const scene = loopGainModel(input as never, { width: PANEL, height: 240 });
+    expect(scene.notes.join(' ')).toMatch(/no gain margin/);
+    const lines = scene.items.filter((it) => it.kind === 'text' && it.role === 'note');
+    expect(lines.length).toBeGreaterThan(1);
+    for (const l of lines) { const b = textBox(l); expect(b.left).toBeGreaterThanOrEqual(0); expect(b.right).toBeLessThanOrEqual(PANEL); }
+  });
 });

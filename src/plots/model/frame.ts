@@ -114,6 +114,28 @@ export function extent(values: Iterable<number | null>): [number, number] | null
   return lo <= hi ? [lo, hi] : null;
 }
 
+/** Words of `text` in lines no wider than `maxWidth` px (estimated by textWidth). */
+export function wrapText(text: string, maxWidth: number, size: number): string[] {
+  const lines: string[] = [];
+  let cur = '';
+  for (const word of text.split(/\s+/).filter(Boolean)) {
+    const next = cur ? `${cur} ${word}` : word;
+    if (cur && textWidth(next, size) > maxWidth) { lines.push(cur); cur = word; } else cur = next;
+  }
+  if (cur) lines.push(cur);
+  return lines;
+}
+
+/** A note wrapped to `maxWidth` px: kept once in scene.notes, drawn line by line from (x, y)
+ *  downwards. Returns the number of lines. */
+export function addWrappedNote(scene: Scene, text: string, x: number, y: number, maxWidth: number): number {
+  const size = FONT_SIZE - 1;
+  const lines = wrapText(text, maxWidth, size);
+  scene.notes.push(text);
+  lines.forEach((l, i) => scene.items.push({ kind: 'text', role: 'note', x, y: y + i * (size + 2), text: l, anchor: 'start', baseline: 'hanging', size, fill: PALETTE.inkSoft }));
+  return lines.length;
+}
+
 /** A note: kept in scene.notes and drawn as a line of text at (x, y). */
 export function addNote(scene: Scene, text: string, x: number, y: number): void {
   scene.notes.push(text);

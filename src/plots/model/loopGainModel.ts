@@ -4,7 +4,7 @@
 import type { LoopGainInput, MarginsInput, PlotSize } from '../types';
 import type { HoverPoint, Scene } from './scene';
 import { formatSi, plainLabel } from './scales';
-import { addNote, newScene, titleItem, FONT_SIZE, type Panel } from './frame';
+import { addNote, addWrappedNote, newScene, textWidth, titleItem, FONT_SIZE, type Panel } from './frame';
 import { frequencyPanels } from './freqPanels';
 import { LINES, PALETTE } from './palette';
 
@@ -35,7 +35,7 @@ export function loopGainModel(input: LoopGainInput, size: PlotSize = {}): Scene 
       if (pm !== null) {
         const y0 = phase.ys.map(ref), y1 = phase.ys.map(ref + pm);
         scene.items.push({ kind: 'line', role: 'phase-margin', x1: x, y1: y0, x2: x, y2: y1, style: LINES.margin });
-        scene.items.push(label('phase-margin-label', x + 6, (y0 + y1) / 2, `PM ${plainLabel(Number(pm.toFixed(1)))}°`));
+        scene.items.push(label('phase-margin-label', x, (y0 + y1) / 2, `PM ${plainLabel(Number(pm.toFixed(1)))}°`, phase.x + phase.w));
         lines.push(`phase margin ${plainLabel(Number(pm.toFixed(1)))}°`);
       }
       marks.push({ x, y: mag.ys.map(0), dots: [], lines });
@@ -47,13 +47,18 @@ export function loopGainModel(input: LoopGainInput, size: PlotSize = {}): Scene 
       const x = mag.xs.map(f180);
       const y0 = mag.ys.map(0), y1 = mag.ys.map(-gm);
       scene.items.push({ kind: 'line', role: 'gain-margin', clip: 'mag', x1: x, y1: y0, x2: x, y2: y1, style: LINES.margin });
-      scene.items.push(label('gain-margin-label', x + 6, (y0 + y1) / 2, `GM ${plainLabel(Number(gm.toFixed(1)))} dB`));
+      scene.items.push(label('gain-margin-label', x, (y0 + y1) / 2, `GM ${plainLabel(Number(gm.toFixed(1)))} dB`, mag.x + mag.w));
       scene.items.push({ kind: 'marker', role: 'phase-cross-mark', shape: 'diamond', x, y: phase.ys.map(ref), size: 4, style: { stroke: PALETTE.violet, width: 2, fill: PALETTE.background } });
       marks.push({ x, y: phase.ys.map(ref), dots: [], lines: [`∠T = −180° at ${formatSi(f180, 'Hz')}`, `gain margin ${plainLabel(Number(gm.toFixed(1)))} dB`] });
     } else if (fc !== null) notes.push('∠T does not reach −180° in the plotted band: no gain margin.');
     if (marks.length) scene.hover.unshift({ id: 'margins', mode: 'xy', area: { x: mag.x, y: mag.y, w: mag.w, h: phase.y + phase.h - mag.y }, radius: 10, points: marks });
   }
-  if (notes.length) addNote(scene, notes.join(' '), 8, height - 12);
+  if (notes.length) {
+    // One line at the foot when it fits; else wrapped inside the top of the magnitude panel.
+    const text = notes.join(' ');
+    if (!fp || 8 + textWidth(text, FONT_SIZE - 1) <= width - 8) addNote(scene, text, 8, height - 12);
+    else addWrappedNote(scene, text, fp.mag.x + 6, fp.mag.y + 4, fp.mag.w - 12);
+  }
   return scene;
 }
 
@@ -71,8 +76,10 @@ function hLine(scene: Scene, p: Panel, v: number, role: string): void {
   scene.items.push({ kind: 'line', role, clip: p.id, x1: p.x, y1: y, x2: p.x + p.w, y2: y, style: LINES.reference });
 }
 
-function label(role: string, x: number, y: number, text: string) {
-  return { kind: 'text' as const, role, x, y, text, anchor: 'start' as const, baseline: 'middle' as const, size: FONT_SIZE, fill: PALETTE.violet, weight: 'bold' as const };
+/** A margin label beside the line at x: to its right, or to its left when it would pass `right`. */
+function label(role: string, x: number, y: number, text: string, right: number) {
+  const toLeft = x + 6 + textWidth(text, FONT_SIZE) > right;
+  return { kind: 'text' as const, role, x: toLeft ? x - 6 : x + 6, y, text, anchor: toLeft ? 'end' as const : 'start' as const, baseline: 'middle' as const, size: FONT_SIZE, fill: PALETTE.violet, weight: 'bold' as const };
 }
 
 /** Value at f by linear interpolation in log f between the bracketing samples (null if missing). */
