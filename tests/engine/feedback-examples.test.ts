@@ -5,7 +5,15 @@ import { analyzeFeedback } from '../../src/engine/feedback/index';
 import { feedbackReport } from '../../src/engine/feedback/cli';
 import type { Netlist } from '../../src/engine/types';
 
-const load = (f: string) => JSON.parse(readFileSync(`src/examples/netlists/${f}`, 'utf8')) as Netlist;
+const read = (f: string) => JSON.parse(readFileSync(`src/examples/netlists/${f}`, 'utf8')) as Netlist;
+// The readout examples measure the bare source's output impedance (only a test current at out).
+// Here their output drives the readout amplifier: its pMOS device Mload (its own ro) loads out.
+const MLOAD = { name: 'Mload', kind: 'pmos', pins: { d: 'out', g: '0', s: '0', b: '0' },
+  values: { id: '20u', vov: '0.3', w: '12u', l: '1u' } } as const;
+const load = (f: string): Netlist => {
+  const nl = read(f);
+  return f.startsWith('readout-') ? { ...nl, parts: [...nl.parts, { ...MLOAD, pins: { ...MLOAD.pins }, values: { ...MLOAD.values } }] } : nl;
+};
 
 // Demo process card (src/engine/process.ts) and the MOS stamp relations gm = gmid·Id,
 // gds = (λL/L)·Id, gmb = η·gm (Razavi, Design of Analog CMOS ICs, ch. 2).
