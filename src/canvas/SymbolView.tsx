@@ -5,34 +5,15 @@
 import { memo } from 'react';
 import { Circle, Group, Line, Text } from 'react-konva';
 import { orient, type Primitive, type SymbolDef, type TextAlign } from '../schematic/symbols';
+import { arcPoints, orientAlign } from '../export/symbolGeometry';
 import type { Point, Rotation } from '../schematic/document';
 
 export const SYMBOL_STROKE = 1.5;
 export const TEXT_FONT = "system-ui, -apple-system, 'Segoe UI', Roboto, Arial, sans-serif";
 
-/** Sample an arc (degrees, clockwise on screen from +x, drawn start → end clockwise) as a polyline. */
-export function arcPoints(cx: number, cy: number, r: number, start: number, end: number): number[] {
-  let sweep = end - start;
-  while (sweep <= 0) sweep += 360;
-  const steps = Math.max(4, Math.ceil(sweep / 10));
-  const pts: number[] = [];
-  for (let i = 0; i <= steps; i++) {
-    const a = ((start + (sweep * i) / steps) * Math.PI) / 180;
-    pts.push(cx + r * Math.cos(a), cy + r * Math.sin(a));
-  }
-  return pts;
-}
-
-/** Alignment of upright text after the part transform: a label that sat to the right of the body
- *  must still read away from the body when the symbol is mirrored or turned. */
-export function orientAlign(align: TextAlign, anchor: Point, rotation: Rotation, mirror: boolean): TextAlign {
-  const ex = orient({ x: 1, y: 0 }, rotation, mirror).x;
-  if (ex < 0) return align === 'start' ? 'end' : align === 'end' ? 'start' : 'middle';
-  if (ex > 0) return align;
-  const wx = orient(anchor, rotation, mirror).x;
-  if (align === 'middle' || wx === 0) return 'middle';
-  return wx > 0 ? 'start' : 'end';
-}
+// Arc sampling and upright-text alignment are shared with the SVG export (one reading of the
+// symbol primitives): they live in the DOM-free src/export/symbolGeometry.ts.
+export { arcPoints, orientAlign };
 
 /** Upright text written inside a body (a net label's name) cannot fit once the body stands
  *  vertical; it then goes just past the body's far end, centred, above or below it. */
