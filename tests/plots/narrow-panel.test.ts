@@ -5,6 +5,7 @@ import { describe, expect, it } from 'vitest';
 import { impedanceModel } from '../../src/plots/model/impedanceModel';
 import { bodeModel } from '../../src/plots/model/bodeModel';
 import { loopGainModel } from '../../src/plots/model/loopGainModel';
+import { splaneModel } from '../../src/plots/model/splaneModel';
 import type { Scene } from '../../src/plots/model/scene';
 
 const PANEL = 276;
@@ -78,5 +79,24 @@ describe('loop-gain plot at 276 px', () => {
     const lines = scene.items.filter((it) => it.kind === 'text' && it.role === 'note');
     expect(lines.length).toBeGreaterThan(1);
     for (const l of lines) { const b = textBox(l); expect(b.left).toBeGreaterThanOrEqual(0); expect(b.right).toBeLessThanOrEqual(PANEL); }
+  });
+});
+
+describe('s-plane at 276 px', () => {
+  it('wraps its caption and legend inside the width, below the plane', () => {
+    // invented poles: a real pole at −1 MHz and a complex pair at 10 MHz with Q ≈ 0.7
+    const w0 = 2 * Math.PI * 1e7, q = 0.7;
+    const re = -w0 / (2 * q), im = w0 * Math.sqrt(1 - 1 / (4 * q * q));
+    const scene = splaneModel({ poles: [{ re: -2 * Math.PI * 1e6, im: 0 }, { re, im }, { re, im: -im }], zeros: [{ re: 2 * Math.PI * 5e7, im: 0 }] } as never, { width: PANEL, height: 300 });
+    const frame = scene.items.find((it) => it.kind === 'rect' && it.role === 'frame')!;
+    const bottom = frame.kind === 'rect' ? frame.y + frame.h : 0;
+    const notes = scene.items.filter((it) => it.kind === 'text' && it.role === 'note');
+    expect(notes.length).toBeGreaterThan(0);
+    for (const n of notes) {
+      if (n.kind !== 'text') continue;
+      expect(n.x + n.text.length * n.size * 0.6).toBeLessThanOrEqual(PANEL); // 0.6 em estimate, common practice
+      expect(n.y).toBeGreaterThan(bottom);
+      expect(n.y + n.size).toBeLessThanOrEqual(300);
+    }
   });
 });

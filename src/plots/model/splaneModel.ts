@@ -4,7 +4,7 @@
 import type { PlotRoot, PlotSize, SplaneInput } from '../types';
 import type { HoverPoint, MarkerShape, Scene, Style } from './scene';
 import { arrowRuns } from './scene';
-import { addNote, newScene, titleItem, FONT_SIZE } from './frame';
+import { addNote, newScene, titleItem, wrapText, FONT_SIZE } from './frame';
 import { linearView, signedLogView, formatRoot, type SplaneView, type SplaneViewKind } from './splaneView';
 import { describeRoot } from './bodeModel';
 import { LINES, MARKS, PALETTE } from './palette';
@@ -44,8 +44,12 @@ export function splaneModel(input: SplaneInput, opts: SplaneOptions = {}): Scene
   for (const z of zeros) marks.push(drawRoot(scene, view, z, 'zero'));
   if (!pts.length) addNote(scene, 'No finite poles or zeros to draw.', area.x + 6, area.y + 6);
   scene.hover.push({ id: 'roots', mode: 'xy', area, radius: 10, points: marks });
-  addNote(scene, view.caption, 8, height - 25);
-  if (legend.length) addNote(scene, legend.join(' '), 8, height - 12);
+  // Caption and legend wrapped to the width, stacked up from the foot (13 px a line).
+  const size = FONT_SIZE - 1;
+  const notes = [view.caption, ...(legend.length ? [legend.join(' ')] : [])];
+  const lines = notes.flatMap((n) => wrapText(n, width - 16, size));
+  scene.notes.push(...notes);
+  lines.forEach((l, i) => scene.items.push({ kind: 'text', role: 'note', x: 8, y: height - 12 - 13 * (lines.length - 1 - i), text: l, anchor: 'start', baseline: 'hanging', size, fill: PALETTE.inkSoft }));
   return scene;
 }
 
