@@ -104,3 +104,22 @@ describe('part-level loops', () => {
     expect(global[0].variants).toContain('G1');
   });
 });
+
+describe('loop return ratios read from the coupling graph', () => {
+  it('equal Bode\'s definition applied literally (source removed, unit control, returned control; Bode 1945)', async () => {
+    const { returnRatioDirect } = await import('../../src/engine/feedback/returnRatio');
+    const { sourceStamps } = await import('../../src/engine/feedback/pencil');
+    const sys = regulatedWithBody(40, 100e3);
+    const d = discoverLoops(sys, { freqsHz: [1e5, 1e7, 1e9] });
+    const stamps = sourceStamps(sys);
+    for (const l of d.loops) {
+      const s = stamps.find((x) => x.id === l.key)!;
+      const pts = [l.returnRatio.dc, ...l.returnRatio.points];
+      d.fHz.forEach((f, i) => {
+        const ref = returnRatioDirect(sys, sys.G, s, 2 * Math.PI * f).value!;
+        const got = pts[i].value!;
+        expect(Math.hypot(got.re - ref.re, got.im - ref.im) / Math.hypot(ref.re, ref.im)).toBeLessThan(1e-9);
+      });
+    }
+  });
+});

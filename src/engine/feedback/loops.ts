@@ -16,7 +16,7 @@ import { stronglyConnected } from './cycles';
 import { EDGE_FLOOR, findPartCycles } from './partCycles';
 import type { PartCycle } from './partCycles';
 import { logSpace, nodeLabel } from './pencil';
-import { returnRatios } from './returnRatio';
+import { returnRatiosFromGraph } from './graphReturnRatio';
 import type { ReturnRatioPoint, ReturnRatioSweep } from './returnRatio';
 
 export interface LoopMember { id: string; part: string; role: string }
@@ -133,7 +133,7 @@ export function discoverLoops(sys: MnaSystem, opts: LoopOptions = {}): LoopDisco
   const repsOf = (c: PartCycle) => c.sources.map((list) => [...list].sort(byPreference)[0]);
   const keyPos = (c: PartCycle) => { const r = repsOf(c); return r.indexOf([...r].sort(byPreference)[0]); };
   const keys = [...new Set(kept.map((c) => graph.stamps[repsOf(c)[keyPos(c)]].id))];
-  const rr = new Map(returnRatios(sys, { freqsHz: fz.slice(1), scale: opts.scale, ids: keys }).map((r) => [r.id, r]));
+  const rr = new Map(returnRatiosFromGraph(sys, graph, keys, opts.scale).map((r) => [r.id, r]));
   const member = (v: number): LoopMember => ({ id: graph.stamps[v].id, part: graph.stamps[v].part, role: graph.stamps[v].role });
   const rotate = <T>(xs: T[], k: number) => [...xs.slice(k), ...xs.slice(0, k)];
   const idOf = (c: PartCycle) => { const r = repsOf(c); return rotate(r, keyPos(c)).map((v) => graph.stamps[v].id).join('>'); };
