@@ -8,7 +8,7 @@
 // for negative feedback). Had the other sources been left in, each edge would already contain the
 // paths through third sources and cycle products would count them twice.
 import type { MnaSystem } from '../types';
-import { PencilAt, addRankOne, controlIsGround, controlOf, scaledG, sourceStamps, uVector } from './pencil';
+import { PencilAt, addRankOne, controlIsGround, controlOf, scaledG, sourceStamps } from './pencil';
 import type { SourceStamp } from './pencil';
 import { scaleStamp } from './returnRatio';
 
@@ -54,7 +54,8 @@ export function couplingGraph(sys: MnaSystem, opts: CouplingOptions = {}): Coupl
   const outNode = new Int32Array(N * N).fill(-1);
   const ctlNode = new Int32Array(N * N).fill(-1);
   const gminAtHz: number[] = [];
-  const us = stamps.map((s) => uVector(s, n).map((x) => -x));
+  // unit-control excitations −u, kept sparse (a source's u has one or two entries)
+  const negVals = stamps.map((s) => s.uVals.map((x) => -x));
   for (const f of fHz) {
     const omega = 2 * Math.PI * f;
     let pencil = new PencilAt(Gcut, sys.C, n, omega);
@@ -67,7 +68,7 @@ export function couplingGraph(sys: MnaSystem, opts: CouplingOptions = {}): Coupl
     const dRe = new Float64Array(N * N);
     const dIm = new Float64Array(N * N);
     for (let i = 0; i < N; i++) {
-      const x = pencil.solve(us[i]);
+      const x = pencil.solveSparse(stamps[i].uRows, negVals[i]);
       for (let j = 0; j < N; j++) {
         const c = controlOf(stamps[j], x);
         dRe[i * N + j] = c.re;

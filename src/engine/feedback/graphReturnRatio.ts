@@ -7,7 +7,8 @@
 // frequency serves every key. Where the graph needed the 1e-12 S helper conductance, or (I − D) is
 // singular, the point is computed from the full network as before (returnRatio.ts).
 import type { MnaSystem } from '../types';
-import { luComplex, luReal, solveComplex, solveReal } from '../linalg/lu';
+import { luComplex, luReal } from '../linalg/lu';
+import type { ComplexLU, RealLU } from '../linalg/lu';
 import type { CouplingGraph } from './coupling';
 import { describeStatus, returnRatios } from './returnRatio';
 import type { ReturnRatioPoint, ReturnRatioSweep } from './returnRatio';
@@ -37,13 +38,7 @@ export function returnRatiosFromGraph(
     if ((real?.singularAt ?? cplx!.singularAt) >= 0) { missing.add(fi); continue; }
     idx.forEach((k, a) => {
       if (k < 0) return;
-      const e = new Float64Array(N);
-      e[k] = 1;
-      let xr: number, xi: number;
-      if (real) { xr = solveReal(real, e)[k]; xi = 0; } else {
-        const [yr, yi] = solveComplex(cplx!, e, new Float64Array(N));
-        xr = yr[k]; xi = yi[k];
-      }
+      const { re: xr, im: xi } = inverseDiagonal(real, cplx, N, k);
       const d = xr * xr + xi * xi;
       // x = 1/(1 + T) ≈ 0: the network with k removed is singular, T unbounded (as returnRatio.ts)
       if (!(d > 1e-24)) { points[a][fi] = { value: null, status: 'infinite' }; return; }
@@ -70,3 +65,38 @@ export function returnRatiosFromGraph(
     };
   });
 }
+
+/** [A⁻¹]_kk from A's LU (real or complex): solve A·y = e_k, forward substitution from the row that
+ *  e_k lands on after the row permutation. */
+function inverseDiagonal(real: RealLU | null, cplx: ComplexLU | null, n: number, k: number): { re: number; im: number } {
+  const perm = real ? real.perm : cplx!.perm;
+  const yr = new Float64Array(n), yi = new Float64Array(n);
+  const first = perm.indexOf(k);
+  yr[first] = 1;
+  const Lr = real ? real.lu : cplx!.re;
+  const Li = real ? null : cplx!.im;
+  for (let i = first + 1; i < n; i++) {
+    let sr = 0, si = 0;
+    for (let j = first; j < i; j++) {
+      const lr = Lr[i * n + j], li = Li ? Li[i * n + j] : 0;
+      sr -= lr * yr[j] - li * yi[j];
+      si -= lr * yi[j] + li * yr[j];
+    }
+    yr[i] = sr; yi[i] = si;
+  }
+  // back substitution: y_k needs the rows from the last up to k only
+  for (let i = n - 1; i >= k; i--) {
+    let sr = yr[i], si = yi[i];
+    for (let j = i + 1; j < n; j++) {
+      const ur = Lr[i * n + j], ui = Li ? Li[i * n + j] : 0;
+      sr -= ur * yr[j] - ui * yi[j];
+      si -= ur * yi[j] + ui * yr[j];
+    }
+    const dr = Lr[i * n + i], di = Li ? Li[i * n + i] : 0;
+    const d = dr * dr + di * di;
+    yr[i] = (sr * dr + si * di) / d;
+    yi[i] = (si * dr - sr * di) / d;
+  }
+  return { re: yr[k], im: yi[k] };
+}
+

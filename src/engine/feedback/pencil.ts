@@ -119,6 +119,60 @@ export class PencilAt {
     return { re, im };
   }
 
+  /** Solves M x = b for a real b with few non-zeros (a source's u vector): forward substitution
+   *  starts at the first row the permuted b reaches, since L's rows above it only carry zeros. */
+  solveSparse(rows: number[], vals: number[]): CVec {
+    const n = this.n;
+    const xr = new Float64Array(n);
+    const xi = new Float64Array(n);
+    const perm = this.real ? this.real.perm : this.cplx!.perm;
+    let first = n;
+    for (let i = 0; i < n; i++) {
+      for (let k = 0; k < rows.length; k++) {
+        if (rows[k] !== perm[i]) continue;
+        xr[i] += vals[k]; // repeated rows add up
+        if (i < first) first = i;
+      }
+    }
+    if (this.real) {
+      const { lu } = this.real;
+      for (let i = first + 1; i < n; i++) {
+        let sr = xr[i];
+        for (let j = first; j < i; j++) sr -= lu[i * n + j] * xr[j];
+        xr[i] = sr;
+      }
+      for (let i = n - 1; i >= 0; i--) {
+        let sr = xr[i];
+        for (let j = i + 1; j < n; j++) sr -= lu[i * n + j] * xr[j];
+        xr[i] = sr / lu[i * n + i];
+      }
+      return { re: xr, im: xi };
+    }
+    const { re, im } = this.cplx!;
+    for (let i = first + 1; i < n; i++) {
+      let sr = xr[i], si = xi[i];
+      for (let j = first; j < i; j++) {
+        const lr = re[i * n + j], li = im[i * n + j];
+        sr -= lr * xr[j] - li * xi[j];
+        si -= lr * xi[j] + li * xr[j];
+      }
+      xr[i] = sr; xi[i] = si;
+    }
+    for (let i = n - 1; i >= 0; i--) {
+      let sr = xr[i], si = xi[i];
+      for (let j = i + 1; j < n; j++) {
+        const ur = re[i * n + j], ui = im[i * n + j];
+        sr -= ur * xr[j] - ui * xi[j];
+        si -= ur * xi[j] + ui * xr[j];
+      }
+      const dr = re[i * n + i], di = im[i * n + i];
+      const d = dr * dr + di * di;
+      xr[i] = (sr * dr + si * di) / d;
+      xi[i] = (si * dr - sr * di) / d;
+    }
+    return { re: xr, im: xi };
+  }
+
   /** Solves Mᵀ w = b (plain transpose, not conjugate): wᵀ = bᵀ M⁻¹ for row vectors. */
   solveTransposed(bRe: Float64Array): CVec {
     if (this.real) return { re: solveRealTransposed(this.real, bRe), im: new Float64Array(this.n) };
