@@ -75,8 +75,13 @@ export function feedbackReport(netlist: Netlist, args: FeedbackArgs, io: { input
     const t = loop.returnRatioDc.value;
     const band = loop.band ? (loop.band.fromHz === 0 ? `DC – ${loop.band.toHz === null ? 'top of sweep' : hz(loop.band.toHz)}` : `${hz(loop.band.fromHz)} – ${loop.band.toHz === null ? 'top of sweep' : hz(loop.band.toHz)}`) : '—';
     lines.push(`  ${loop.id}  [${loop.kind}] key ${loop.key}`);
+    const through = loop.sources.map((m) => m.id).join(', ');
+    const folded = loop.variants.length ? `; folded in as parallel paths or detours: ${loop.variants.slice(0, 3).join(', ')}${loop.variants.length > 3 ? ` and ${loop.variants.length - 3} more paths` : ''}` : '';
+    lines.push(`    parts: ${loop.parts.join(' → ')} (sources ${through})${folded}`);
     lines.push(`    path: ${loop.nets.join(' → ')}; active ${band}`);
-    lines.push(`    T(DC) = ${t ? fmt(t.re) : `— (${loop.returnRatioDc.status})`}; cycle gain ${fmt(loop.cycleGainDc.re)} at DC, peak ${fmt(loop.peakCycleGain)}`);
+    // open at DC but closing higher up: e.g. an output held only by an ideal test current source
+    const openAtDc = t !== null && Math.hypot(t.re, t.im) < 1e-9 && loop.band !== null && loop.band.fromHz > 0;
+    lines.push(`    T(DC) = ${t ? fmt(t.re) : `— (${loop.returnRatioDc.status})`}${openAtDc ? ` (open at DC; closes above ${hz(loop.band!.fromHz)})` : ''}; cycle gain ${fmt(loop.cycleGainDc.re)} at DC, peak ${fmt(loop.peakCycleGain)}`);
     if (margins.unityGainHz !== null) lines.push(`    crossover ${hz(margins.unityGainHz)}, phase margin ${margins.phaseMarginDeg!.toFixed(1)}°${margins.gainMarginDb !== null ? `, gain margin ${margins.gainMarginDb.toFixed(1)} dB` : ''}`);
     else if (margins.message) lines.push(`    ${margins.message}`);
     lines.push(`    ${regulation.summary}`);
@@ -91,7 +96,7 @@ export function feedbackReport(netlist: Netlist, args: FeedbackArgs, io: { input
     lines.push(`  step response: settles to ${fb.step.settling.map((x) => `${x.tolerance * 100} % in ${x.seconds === null ? '—' : formatSi(x.seconds, 's')}`).join(', ')}; overshoot ${fmt((fb.step.overshoot ?? 0) * 100)} %`);
   } else if (fb.step?.message) lines.push(`  step response: ${fb.step.message}`);
   for (const n of fb.notes) lines.push(`  note: ${n}`);
-  const loops = discoverLoops(sys).loops;
+  const loops = args.off.length || args.locus ? discoverLoops(sys).loops : [];
   if (args.off.length) {
     const r = resolveOff(sys, args.off, loops);
     errors.push(...r.issues.map((i) => i.message));
