@@ -47,6 +47,9 @@ describe('feedback API on an engine netlist', () => {
     const r = analyzeFeedback(regulated(100), { off: ['A1'] });
     expect(r.off).toEqual(['A1.A0']);
     expect(r.loops.some((l) => l.loop.key === 'A1.A0')).toBe(false);
+    // a loop id or label names its key first: switching it off zeroes that source
+    expect(analyzeFeedback(regulated(100), { off: ['A1.A0>M2.gm'] }).off).toEqual(['A1.A0']);
+    expect(analyzeFeedback(regulated(100), { off: ['A1 → M2'] }).off).toEqual(['A1.A0']);
     const bad = analyzeFeedback(regulated(100), { off: ['Q7'] });
     expect(bad.ok).toBe(false);
     expect(bad.issues[0].message).toMatch(/Q7/);

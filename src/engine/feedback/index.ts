@@ -80,8 +80,11 @@ export function resolveOff(sys: MnaSystem, names: string[], loops: Loop[] = []):
   const issues: EngineIssue[] = [];
   for (const name of names) {
     const loop = loops.find((l) => l.id === name || l.label === name);
-    const direct = stamps.find((s) => s.id === name);
-    const ofPart = stamps.filter((s) => s.part === name);
+    // a loop id starts with its key ("A1.A0>M2.gm"), a label with the key's part ("A1 → M2"), so
+    // either resolves without discovering the loops again
+    const head = name.includes('>') ? name.split('>')[0] : name.includes(' → ') ? name.split(' → ')[0] : name;
+    const direct = stamps.find((s) => s.id === head);
+    const ofPart = stamps.filter((s) => s.part === head);
     const pref = ['A0', 'gain', 'gm'].map((r) => ofPart.find((s) => s.role === r)).find(Boolean) ?? ofPart[0];
     const id = loop?.key ?? direct?.id ?? pref?.id;
     if (!id) {
@@ -98,8 +101,7 @@ export function analyzeFeedbackSystem(sys: MnaSystem, opts: FeedbackOptions = {}
   const issues: EngineIssue[] = [];
   let off: string[] = [];
   if (opts.off?.length) {
-    const pre = discoverLoops(sys, { ...opts, scale });
-    const r = resolveOff(sys, opts.off, pre.loops);
+    const r = resolveOff(sys, opts.off);
     issues.push(...r.issues);
     off = r.ids;
     for (const id of off) scale[id] = 0;
