@@ -136,8 +136,12 @@ browserSuite('walk-through of the main job in Chromium', () => {
     const after = await changed(() => badgeText('out'), before, 'badge of node out');
     await idle();
     await shot('02-rc-wired');
+    // The autosave is written a moment after the edit: wait for it to hold the four new wires
+    // (a timeout here fails the test just as a missing wire would).
+    const w0 = Object.keys(start.wires).length;
+    await page.waitForFunction(([k, n]) => Object.keys(JSON.parse(localStorage.getItem(k as string) ?? '{}').wires ?? {}).length >= n, [AUTOSAVE_KEY, w0 + 4] as const, { timeout: 15000 }).catch(() => undefined);
     const doc = await savedDoc();
-    expect(Object.keys(doc.wires).length).toBe(Object.keys(start.wires).length + 4);
+    expect(Object.keys(doc.wires).length).toBe(w0 + 4);
     console.log(`badge out before: ${JSON.stringify(before)} after: ${JSON.stringify(after)}`);
     // The new parts carry their defaults (10 kΩ, 1 pF, symbols/*.json). In shunt from out to
     // ground: |Z| becomes Z ∥ 10 kΩ and the node capacitance grows by 1 pF (Ohm's law and
