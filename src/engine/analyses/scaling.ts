@@ -71,3 +71,11 @@ export function solveScaledComplex(f: ScaledComplexLU, br: Float64Array, bi?: Fl
   for (let i = 0; i < n; i++) { yr[i] *= s.c[i]; yi[i] *= s.c[i]; }
   return [yr, yi];
 }
+
+/** Scaled complex LU of the pencil G + s·C at one complex frequency s. */
+export function factorPencilAt(G: Float64Array, C: Float64Array, n: number, s: { re: number; im: number }): ReturnType<typeof scaledLuComplex> {
+  const Ar = new Float64Array(n * n);
+  const Ai = new Float64Array(n * n);
+  for (let i = 0; i < n * n; i++) { Ar[i] = G[i] + s.re * C[i]; Ai[i] = s.im * C[i]; }
+  return scaledLuComplex(Ar, Ai, n);
+}

@@ -1,7 +1,7 @@
 // The chosen transfer H(s) = cᵀ(G + sC)⁻¹b (y = cᵀx, (G + sC)x = b·u): at DC and at any s.
 
 import type { Cx, MnaSystem } from '../types';
-import { scaledLuComplex, solveScaledComplex } from './scaling';
+import { factorPencilAt, solveScaledComplex } from './scaling';
 import { dcBilinear, factorDc, type DcFactor } from './dc';
 import { evalHessenberg, hessenbergForm, shiftedReduction, type ShiftedReduction } from './hessenberg';
 
@@ -31,10 +31,7 @@ export function dcTransfer(sys: TransferSys, dc: DcFactor = factorDc(sys)): DcTr
 /** Direct evaluation with one complex LU (reference path; O(n³) per point). */
 export function transferDirect(sys: TransferSys, s: Cx): Cx | null {
   const { n, G, C, b, c } = sys;
-  const Ar = new Float64Array(n * n);
-  const Ai = new Float64Array(n * n);
-  for (let i = 0; i < n * n; i++) { Ar[i] = G[i] + s.re * C[i]; Ai[i] = s.im * C[i]; }
-  const f = scaledLuComplex(Ar, Ai, n);
+  const f = factorPencilAt(G, C, n, s);
   if (f.singular) return null;
   const [xr, xi] = solveScaledComplex(f, b);
   let re = 0, im = 0;

@@ -7,7 +7,7 @@
 
 import type { Cx, MnaSystem } from '../types';
 import { finiteEigenvalues } from '../linalg/qz';
-import { scaledLuComplex, solveScaledComplex } from './scaling';
+import { factorPencilAt, solveScaledComplex } from './scaling';
 import { isZeroVector } from './transfer';
 import { REFINE_UP_TO, type Pole } from './poles';
 
@@ -40,10 +40,7 @@ function maxAbs(v: Float64Array): number {
 /** H at a probe s, with how much cancellation it took: |H| / (‖c‖·‖x‖). Null if G + sC is singular. */
 function probe(sys: ZeroSys, s: Cx): { rel: number } | null {
   const { n, G, C, b, c } = sys;
-  const Ar = new Float64Array(n * n);
-  const Ai = new Float64Array(n * n);
-  for (let i = 0; i < n * n; i++) { Ar[i] = G[i] + s.re * C[i]; Ai[i] = s.im * C[i]; }
-  const f = scaledLuComplex(Ar, Ai, n);
+  const f = factorPencilAt(G, C, n, s);
   if (f.singular) return null;
   const [xr, xi] = solveScaledComplex(f, b);
   let hr = 0, hi = 0, xs = 0, cs = 0;
