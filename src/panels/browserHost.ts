@@ -1,6 +1,7 @@
 // What the editor needs from the browser: file download and pick, the system clipboard with a
 // localStorage copy (so two tabs of the app can copy and paste between each other; the other tab
 // learns of it from the storage event), and autosave with restore after a reload.
+import { downloadText } from '../export/browserExport';
 import { useCallback, useEffect, useRef, useState, type ChangeEvent, type RefObject } from 'react';
 import type { Editor } from '../editor/types';
 import { emptyDocument, type DrawingDocument } from '../schematic/document';
@@ -61,16 +62,7 @@ export function readFileText(file: Blob): Promise<string> {
   });
 }
 
-function download(name: string, text: string): void {
-  const url = URL.createObjectURL(new Blob([text], { type: 'application/json' }));
-  const a = document.createElement('a');
-  a.href = url;
-  a.download = name;
-  document.body.appendChild(a);
-  a.click();
-  a.remove();
-  setTimeout(() => URL.revokeObjectURL(url), 0);
-}
+const download = (name: string, text: string): void => downloadText(name, 'application/json', text);
 
 export function useBrowserHost({ editor, storage, examples, setBanner, onSaved, elk = workerElk }: Options): BrowserHost {
   const fileInput = useRef<HTMLInputElement | null>(null);
