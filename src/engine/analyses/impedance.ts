@@ -1,10 +1,11 @@
 // Driving-point impedance of every node to ground, independent sources zeroed (they already are
-// in G, C): Z_kk(s) = e_kᵀ(G + sC)⁻¹e_k. One LU per frequency, one solve per node unit vector.
+// in G, C): Z_kk(s) = e_kᵀ(G + sC)⁻¹e_k. One LU per frequency, one (partial) solve per node.
 // At DC a node reached only through capacitors is "open at DC": Z_kk(s → 0) is unbounded iff the
 // 1/s residue W·K⁻¹·Vᵀ has a nonzero (k, k) entry (see dc.ts; for one null pair: v_k·w_k ≠ 0).
 
 import type { Cx, MnaSystem } from '../types';
-import { scaledLuComplex, solveScaledComplex } from './scaling';
+import { factorPencilAt } from './scaling';
+import { complexInverseDiagonal } from '../linalg/lu';
 import { dcBilinear, factorDc, type DcFactor } from './dc';
 
 export type ImpedanceSys = Pick<MnaSystem, 'n' | 'nodeCount' | 'G' | 'C'>;
@@ -40,21 +41,16 @@ export interface ImpedanceAt {
 /** Z_kk(s) for every node, one complex LU of G + sC and one solve per node. */
 export function impedancesAt(sys: ImpedanceSys, s: Cx): ImpedanceAt {
   const { n, nodeCount, G, C } = sys;
-  const Ar = new Float64Array(n * n);
-  const Ai = new Float64Array(n * n);
-  for (let i = 0; i < n * n; i++) { Ar[i] = G[i] + s.re * C[i]; Ai[i] = s.im * C[i]; }
-  const f = scaledLuComplex(Ar, Ai, n);
+  const f = factorPencilAt(G, C, n, s);
   if (f.singular) {
     return { values: new Array(nodeCount).fill(null), status: 'singular', reason: 'G + sC is singular at this s (s is a pole)' };
   }
-  const er = new Float64Array(n);
-  const ei = new Float64Array(n);
+  // (G + sC)⁻¹ = S·(R(G + sC)S)⁻¹·R for the equilibrated factor (scaling.ts).
+  const [dr, di] = complexInverseDiagonal(f.lu, nodeCount);
   const values: (Cx | null)[] = [];
   for (let k = 0; k < nodeCount; k++) {
-    er.fill(0);
-    er[k] = 1;
-    const [xr, xi] = solveScaledComplex(f, er, ei);
-    const z = { re: xr[k], im: xi[k] };
+    const w = f.s.r[k] * f.s.c[k];
+    const z = { re: dr[k] * w, im: di[k] * w };
     values.push(Number.isFinite(z.re) && Number.isFinite(z.im) ? z : null);
   }
   return { values, status: 'ok' };

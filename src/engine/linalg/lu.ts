@@ -1,10 +1,36 @@
 // Dense LU factorisation with partial pivoting (Golub & Van Loan, Alg. 3.4.1), real and complex.
 // Matrices are row-major Float64Array (see src/engine/types.ts). The factor is stored in place of
 // a copy of the input; `perm[k]` is the original row placed at row k.
+// MNA matrices hold a few entries per row, so the elimination updates only the pivot row's nonzero
+// columns and the solves run over the factor's nonzero pattern (compressed rows, built once per
+// factor on first use): same arithmetic as the dense loops, without the multiplications by zero.
+
+/** Nonzero pattern of a factor by rows: strictly lower (L) and strictly upper (U) parts. */
+export interface FactorRows { lStart: Int32Array; lIdx: Int32Array; uStart: Int32Array; uIdx: Int32Array }
+
+function factorRows(n: number, nonzero: (k: number) => boolean): FactorRows {
+  const lStart = new Int32Array(n + 1), uStart = new Int32Array(n + 1);
+  const l: number[] = [], u: number[] = [];
+  for (let i = 0; i < n; i++) {
+    lStart[i] = l.length; uStart[i] = u.length;
+    for (let j = 0; j < i; j++) if (nonzero(i * n + j)) l.push(j);
+    for (let j = i + 1; j < n; j++) if (nonzero(i * n + j)) u.push(j);
+  }
+  lStart[n] = l.length; uStart[n] = u.length;
+  return { lStart, lIdx: Int32Array.from(l), uStart, uIdx: Int32Array.from(u) };
+}
+
+/** Columns j > k where row k of the row-major matrix(es) is nonzero, into `out`; returns the count. */
+function nonzeroColumns(a: Float64Array, b: Float64Array | null, n: number, k: number, out: Int32Array): number {
+  let m = 0;
+  for (let j = k + 1; j < n; j++) if (a[k * n + j] !== 0 || (b !== null && b[k * n + j] !== 0)) out[m++] = j;
+  return m;
+}
 
 export interface RealLU {
   n: number;
   lu: Float64Array;
+  rows?: FactorRows;
   perm: Int32Array;
   /** Index of the first column whose pivot was (numerically) zero, or −1. */
   singularAt: number;
@@ -16,6 +42,7 @@ export interface ComplexLU {
   n: number;
   re: Float64Array;
   im: Float64Array;
+  rows?: FactorRows;
   perm: Int32Array;
   singularAt: number;
   minPivotRatio: number;
@@ -23,8 +50,9 @@ export interface ComplexLU {
 
 const TINY = 1e-300;
 
-export function luReal(A: Float64Array, n: number, relTol = 1e-14): RealLU {
-  const lu = Float64Array.from(A);
+export function luReal(A: Float64Array, n: number, relTol = 1e-14, inPlace = false): RealLU {
+  const lu = inPlace ? A : Float64Array.from(A);
+  const cols = new Int32Array(n);
   const perm = new Int32Array(n);
   for (let i = 0; i < n; i++) perm[i] = i;
   let maxAbs = 0;
@@ -50,29 +78,35 @@ export function luReal(A: Float64Array, n: number, relTol = 1e-14): RealLU {
       const t = perm[k]; perm[k] = perm[p]; perm[p] = t;
     }
     const pivot = lu[k * n + k];
+    const m = nonzeroColumns(lu, null, n, k, cols);
     for (let i = k + 1; i < n; i++) {
       const f = lu[i * n + k] / pivot;
       if (f === 0) continue;
       lu[i * n + k] = f;
-      for (let j = k + 1; j < n; j++) lu[i * n + j] -= f * lu[k * n + j];
+      for (let t = 0; t < m; t++) { const j = cols[t]; lu[i * n + j] -= f * lu[k * n + j]; }
     }
   }
   return { n, lu, perm, singularAt, minPivotRatio: maxAbs > 0 ? minPivot / maxAbs : 0 };
 }
 
 /** Solve A·x = b for one right-hand side (b is not modified). */
+function realRows(f: RealLU): FactorRows {
+  return (f.rows ??= factorRows(f.n, (k) => f.lu[k] !== 0));
+}
+
 export function solveReal(f: RealLU, b: Float64Array): Float64Array {
   const { n, lu, perm } = f;
+  const { lStart, lIdx, uStart, uIdx } = realRows(f);
   const x = new Float64Array(n);
   for (let i = 0; i < n; i++) x[i] = b[perm[i]];
   for (let i = 0; i < n; i++) {
     let s = x[i];
-    for (let j = 0; j < i; j++) s -= lu[i * n + j] * x[j];
+    for (let t = lStart[i]; t < lStart[i + 1]; t++) { const j = lIdx[t]; s -= lu[i * n + j] * x[j]; }
     x[i] = s;
   }
   for (let i = n - 1; i >= 0; i--) {
     let s = x[i];
-    for (let j = i + 1; j < n; j++) s -= lu[i * n + j] * x[j];
+    for (let t = uStart[i]; t < uStart[i + 1]; t++) { const j = uIdx[t]; s -= lu[i * n + j] * x[j]; }
     x[i] = s / lu[i * n + i];
   }
   return x;
@@ -81,39 +115,42 @@ export function solveReal(f: RealLU, b: Float64Array): Float64Array {
 /** Solve Aᵀ·x = b (used for left eigenvectors and adjoint sensitivities). */
 export function solveRealTransposed(f: RealLU, b: Float64Array): Float64Array {
   const { n, lu, perm } = f;
+  const { lStart, lIdx, uStart, uIdx } = realRows(f);
   const z = Float64Array.from(b);
-  for (let i = 0; i < n; i++) {
-    let s = z[i];
-    for (let j = 0; j < i; j++) s -= lu[j * n + i] * z[j];
-    z[i] = s / lu[i * n + i];
+  // Uᵀz = b forward and Lᵀw = z backward, column-oriented: row j of U (L) is column j of Uᵀ (Lᵀ).
+  for (let j = 0; j < n; j++) {
+    const zj = (z[j] /= lu[j * n + j]);
+    if (zj !== 0) for (let t = uStart[j]; t < uStart[j + 1]; t++) { const i = uIdx[t]; z[i] -= lu[j * n + i] * zj; }
   }
-  for (let i = n - 1; i >= 0; i--) {
-    let s = z[i];
-    for (let j = i + 1; j < n; j++) s -= lu[j * n + i] * z[j];
-    z[i] = s;
+  for (let j = n - 1; j >= 0; j--) {
+    const zj = z[j];
+    if (zj !== 0) for (let t = lStart[j]; t < lStart[j + 1]; t++) { const i = lIdx[t]; z[i] -= lu[j * n + i] * zj; }
   }
   const x = new Float64Array(n);
   for (let i = 0; i < n; i++) x[perm[i]] = z[i];
   return x;
 }
 
-/** Complex LU of (Ar + i·Ai) with partial pivoting on |a|. */
-export function luComplex(Ar: Float64Array, Ai: Float64Array, n: number, relTol = 1e-14): ComplexLU {
-  const re = Float64Array.from(Ar);
-  const im = Float64Array.from(Ai);
+/** Complex LU of (Ar + i·Ai) with partial pivoting on |a|; `inPlace` factors into Ar, Ai. */
+export function luComplex(Ar: Float64Array, Ai: Float64Array, n: number, relTol = 1e-14, inPlace = false): ComplexLU {
+  const re = inPlace ? Ar : Float64Array.from(Ar);
+  const im = inPlace ? Ai : Float64Array.from(Ai);
+  const cols = new Int32Array(n);
   const perm = new Int32Array(n);
   for (let i = 0; i < n; i++) perm[i] = i;
-  let maxAbs = 0;
-  for (let i = 0; i < n * n; i++) maxAbs = Math.max(maxAbs, Math.hypot(re[i], im[i]));
+  let max2 = 0;
+  for (let i = 0; i < n * n; i++) { const v = re[i] * re[i] + im[i] * im[i]; if (v > max2) max2 = v; }
+  const maxAbs = Math.sqrt(max2);
   let singularAt = -1;
   let minPivot = Infinity;
   for (let k = 0; k < n; k++) {
     let p = k;
-    let best = Math.hypot(re[k * n + k], im[k * n + k]);
+    let best2 = re[k * n + k] * re[k * n + k] + im[k * n + k] * im[k * n + k];
     for (let i = k + 1; i < n; i++) {
-      const v = Math.hypot(re[i * n + k], im[i * n + k]);
-      if (v > best) { best = v; p = i; }
+      const v = re[i * n + k] * re[i * n + k] + im[i * n + k] * im[i * n + k];
+      if (v > best2) { best2 = v; p = i; }
     }
+    const best = Math.sqrt(best2);
     minPivot = Math.min(minPivot, best);
     if (best <= Math.max(TINY, relTol * maxAbs)) {
       if (singularAt < 0) singularAt = k;
@@ -129,6 +166,7 @@ export function luComplex(Ar: Float64Array, Ai: Float64Array, n: number, relTol 
     const pr = re[k * n + k];
     const pi = im[k * n + k];
     const d = pr * pr + pi * pi;
+    const m = nonzeroColumns(re, im, n, k, cols);
     for (let i = k + 1; i < n; i++) {
       const ar = re[i * n + k];
       const ai = im[i * n + k];
@@ -137,7 +175,8 @@ export function luComplex(Ar: Float64Array, Ai: Float64Array, n: number, relTol 
       const fi = (ai * pr - ar * pi) / d;
       re[i * n + k] = fr;
       im[i * n + k] = fi;
-      for (let j = k + 1; j < n; j++) {
+      for (let t = 0; t < m; t++) {
+        const j = cols[t];
         const br = re[k * n + j];
         const bi = im[k * n + j];
         re[i * n + j] -= fr * br - fi * bi;
@@ -148,16 +187,22 @@ export function luComplex(Ar: Float64Array, Ai: Float64Array, n: number, relTol 
   return { n, re, im, perm, singularAt, minPivotRatio: maxAbs > 0 ? minPivot / maxAbs : 0 };
 }
 
+function complexRows(f: ComplexLU): FactorRows {
+  return (f.rows ??= factorRows(f.n, (k) => f.re[k] !== 0 || f.im[k] !== 0));
+}
+
 /** Solve (LU)·x = b for a complex right-hand side; returns [xr, xi]. */
 export function solveComplex(f: ComplexLU, br: Float64Array, bi: Float64Array): [Float64Array, Float64Array] {
   const { n, re, im, perm } = f;
+  const { lStart, lIdx, uStart, uIdx } = complexRows(f);
   const xr = new Float64Array(n);
   const xi = new Float64Array(n);
   for (let i = 0; i < n; i++) { xr[i] = br[perm[i]]; xi[i] = bi[perm[i]]; }
   for (let i = 0; i < n; i++) {
     let sr = xr[i];
     let si = xi[i];
-    for (let j = 0; j < i; j++) {
+    for (let t = lStart[i]; t < lStart[i + 1]; t++) {
+      const j = lIdx[t];
       const lr = re[i * n + j];
       const li = im[i * n + j];
       sr -= lr * xr[j] - li * xi[j];
@@ -168,7 +213,8 @@ export function solveComplex(f: ComplexLU, br: Float64Array, bi: Float64Array): 
   for (let i = n - 1; i >= 0; i--) {
     let sr = xr[i];
     let si = xi[i];
-    for (let j = i + 1; j < n; j++) {
+    for (let t = uStart[i]; t < uStart[i + 1]; t++) {
+      const j = uIdx[t];
       const ur = re[i * n + j];
       const ui = im[i * n + j];
       sr -= ur * xr[j] - ui * xi[j];
@@ -183,38 +229,78 @@ export function solveComplex(f: ComplexLU, br: Float64Array, bi: Float64Array): 
   return [xr, xi];
 }
 
+/** Diagonal entries (A⁻¹)_kk, k < count, of the factored A: for each k one solve with e_k that
+ *  starts the forward pass at e_k's permuted row and stops the backward pass at row k (only x_k
+ *  is kept). Returns [re, im]. */
+export function complexInverseDiagonal(f: ComplexLU, count: number): [Float64Array, Float64Array] {
+  const { n, re, im, perm } = f;
+  const { lStart, lIdx, uStart, uIdx } = complexRows(f);
+  const at = new Int32Array(n);
+  for (let i = 0; i < n; i++) at[perm[i]] = i;
+  const xr = new Float64Array(n), xi = new Float64Array(n);
+  const dr = new Float64Array(count), di = new Float64Array(count);
+  for (let k = 0; k < count; k++) {
+    const r0 = at[k];
+    xr.fill(0); xi.fill(0);
+    xr[r0] = 1;
+    for (let i = r0 + 1; i < n; i++) {
+      let sr = 0, si = 0;
+      for (let t = lStart[i]; t < lStart[i + 1]; t++) {
+        const j = lIdx[t];
+        if (j < r0) continue;
+        const lr = re[i * n + j], li = im[i * n + j];
+        sr -= lr * xr[j] - li * xi[j];
+        si -= lr * xi[j] + li * xr[j];
+      }
+      xr[i] = sr; xi[i] = si;
+    }
+    for (let i = n - 1; i >= k; i--) {
+      let sr = xr[i], si = xi[i];
+      for (let t = uStart[i]; t < uStart[i + 1]; t++) {
+        const j = uIdx[t];
+        const ur = re[i * n + j], ui = im[i * n + j];
+        sr -= ur * xr[j] - ui * xi[j];
+        si -= ur * xi[j] + ui * xr[j];
+      }
+      const ar = re[i * n + i], ai = im[i * n + i], d = ar * ar + ai * ai;
+      xr[i] = (sr * ar + si * ai) / d;
+      xi[i] = (si * ar - sr * ai) / d;
+    }
+    dr[k] = xr[k]; di[k] = xi[k];
+  }
+  return [dr, di];
+}
+
 /** Solve (LU)ᴴ·x = b (conjugate transpose), for left vectors; returns [xr, xi]. */
 export function solveComplexAdjoint(f: ComplexLU, br: Float64Array, bi: Float64Array): [Float64Array, Float64Array] {
   const { n, re, im, perm } = f;
+  const { lStart, lIdx, uStart, uIdx } = complexRows(f);
   const zr = Float64Array.from(br);
   const zi = Float64Array.from(bi);
-  // Uᴴ z = b (forward), entries of Uᴴ are conj(U[j][i]).
-  for (let i = 0; i < n; i++) {
-    let sr = zr[i];
-    let si = zi[i];
-    for (let j = 0; j < i; j++) {
-      const ur = re[j * n + i];
-      const ui = -im[j * n + i];
-      sr -= ur * zr[j] - ui * zi[j];
-      si -= ur * zi[j] + ui * zr[j];
+  // Uᴴz = b forward, then Lᴴw = z backward (unit diagonal), column-oriented: row j of U (L) holds
+  // the conjugates of column j of Uᴴ (Lᴴ).
+  for (let j = 0; j < n; j++) {
+    const dr = re[j * n + j], di = -im[j * n + j], d = dr * dr + di * di;
+    const sr = zr[j], si = zi[j];
+    const vr = (sr * dr + si * di) / d, vi = (si * dr - sr * di) / d;
+    zr[j] = vr; zi[j] = vi;
+    if (vr === 0 && vi === 0) continue;
+    for (let t = uStart[j]; t < uStart[j + 1]; t++) {
+      const i = uIdx[t];
+      const ur = re[j * n + i], ui = -im[j * n + i];
+      zr[i] -= ur * vr - ui * vi;
+      zi[i] -= ur * vi + ui * vr;
     }
-    const dr = re[i * n + i];
-    const di = -im[i * n + i];
-    const d = dr * dr + di * di;
-    zr[i] = (sr * dr + si * di) / d;
-    zi[i] = (si * dr - sr * di) / d;
   }
-  // Lᴴ w = z (backward, unit diagonal).
-  for (let i = n - 1; i >= 0; i--) {
-    let sr = zr[i];
-    let si = zi[i];
-    for (let j = i + 1; j < n; j++) {
-      const lr = re[j * n + i];
-      const li = -im[j * n + i];
-      sr -= lr * zr[j] - li * zi[j];
-      si -= lr * zi[j] + li * zr[j];
+  for (let j = n - 1; j >= 0; j--) {
+    const vr = zr[j], vi = zi[j];
+    if (vr === 0 && vi === 0) continue;
+    for (let t = lStart[j]; t < lStart[j + 1]; t++) {
+      const i = lIdx[t];
+      const lr = re[j * n + i], li = -im[j * n + i];
+      zr[i] -= lr * vr - li * vi;
+      zi[i] -= lr * vi + li * vr;
     }
-    zr[i] = sr; zi[i] = si;
   }
   const xr = new Float64Array(n);
   const xi = new Float64Array(n);
