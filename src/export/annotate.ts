@@ -4,9 +4,11 @@
 import type { AnalysisResult, NodeRow } from '../engine/index';
 import { formatSi, SMALL_SIGNAL_CAUTION } from '../engine/index';
 import type { DrawingDocument, Point } from '../schematic/document';
-import { computeConnectivity, GROUND_NET, type NetInfo } from '../schematic/connectivity';
-import { BADGE_TEXT_SIZE, type SchematicAnnotations } from './annotations';
-import { layoutBadges, type Box, type BadgeText } from './badgeLayout';
+import { GROUND_NET, type NetInfo } from '../schematic/connectivity';
+import { cachedConnectivity } from '../schematic/toNetlist';
+import { BADGE_TEXT_SIZE, BADGE_WIDTH_STEP, type SchematicAnnotations } from './annotations';
+import type { Box, BadgeText } from './badgeLayout';
+import { placeBadges } from './annotateCache';
 import { loopPathPoints } from './loopPath';
 import { colorByTimeConstant } from './tauColoring';
 import { DEFAULT_SCALE, impedanceColor, legendStops, NO_VALUE_COLOR, scaleFor, type ImpedanceScale } from './colorScale';
@@ -50,7 +52,7 @@ export function annotate(doc: DrawingDocument, result: AnalysisResult | null, se
   const column = settings.column ?? 'frequency';
   const out: SchematicAnnotations = { nets: {}, badges: [], slowest: null, loop: null, legend: null, caution: SMALL_SIGNAL_CAUTION };
   if (!result || !result.ok) return out;
-  const conn = computeConnectivity(doc);
+  const conn = cachedConnectivity(doc);
   const byName = new Map(conn.nets.map((n) => [n.name, n]));
   const rows = result.nodes.filter((r) => !r.internal && byName.has(r.name) && r.name !== GROUND_NET);
   const scale = settings.scale === undefined || settings.scale === 'auto' ? scaleFor(rows.map((r) => rowOhms(r, column))) : settings.scale;
@@ -67,7 +69,8 @@ export function annotate(doc: DrawingDocument, result: AnalysisResult | null, se
     const pole = slow.openAtDc ? 'integrator' : slow.poleHz !== null ? formatSi(slow.poleHz, 'Hz') : '—';
     out.slowest = { net: slow.name, anchor: anchorOf(slow.name), label: `slowest node ${slow.name}: ${pole}` };
     // The mark's label (drawn right of and below the anchor) is kept clear of badges.
-    avoid.push({ x: out.slowest.anchor.x - 10, y: out.slowest.anchor.y - 10, width: 22 + out.slowest.label.length * BADGE_TEXT_SIZE * 0.58, height: 32 });
+    const labelWidth = Math.ceil((22 + out.slowest.label.length * BADGE_TEXT_SIZE * 0.58) / BADGE_WIDTH_STEP) * BADGE_WIDTH_STEP;
+    avoid.push({ x: out.slowest.anchor.x - 10, y: out.slowest.anchor.y - 10, width: labelWidth, height: 32 });
   }
   const fz = result.conditions.frequencyHz;
   for (const r of rows) {
@@ -81,8 +84,9 @@ export function annotate(doc: DrawingDocument, result: AnalysisResult | null, se
     if (r.poleHz !== null) lines.push(`f ${formatSi(r.poleHz, 'Hz')}`);
     texts.push({ net: r.name, lines, anchor: anchorOf(r.name) });
   }
-  // Clear of symbol bodies and of each other; the slowest node's badge is placed first.
-  out.badges = layoutBadges(doc, texts, out.slowest ? [out.slowest.net] : [], avoid)
+  // Clear of symbol bodies and of each other; the slowest node's badge is placed first. The
+  // placement is memoised by geometry (annotateCache.ts): a value edit only refreshes the texts.
+  out.badges = placeBadges(doc, texts, out.slowest ? [out.slowest.net] : [], avoid)
     .map(({ net, lines, anchor, box, leader, crowded }) => ({ net, lines, anchor, box, leader, crowded }));
   if (settings.loop) {
     const nets = settings.loop.nets.filter((n) => byName.has(n));

@@ -28,8 +28,12 @@ export interface Badge {
 
 /** Text size of badge lines (world units) and the box size that holds them. */
 export const BADGE_TEXT_SIZE = 7;
+/** Badge widths are rounded up to this step (world units, about two characters), so a value edit
+ *  that changes a figure's length by a character keeps the boxes where they are. */
+export const BADGE_WIDTH_STEP = 8;
 export function badgeSize(lines: string[]): { width: number; height: number } {
-  return { width: Math.max(...lines.map((l) => l.length * BADGE_TEXT_SIZE * 0.58)) + 8, height: lines.length * (BADGE_TEXT_SIZE + 2) + 4 };
+  const text = Math.max(...lines.map((l) => l.length * BADGE_TEXT_SIZE * 0.58)) + 8;
+  return { width: Math.ceil(text / BADGE_WIDTH_STEP) * BADGE_WIDTH_STEP, height: lines.length * (BADGE_TEXT_SIZE + 2) + 4 };
 }
 
 export interface SlowestMark {

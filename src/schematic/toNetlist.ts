@@ -7,7 +7,7 @@ import { DEFAULT_PROCESS_NAME } from '../engine/process';
 import type { DrawingDocument } from './document';
 import { DRAWING_FORMAT, pinKey } from './document';
 import { loadDrawing } from './file';
-import { computeConnectivity, GROUND_NET, type NetInfo } from './connectivity';
+import { computeConnectivity, GROUND_NET, type Connectivity, type NetInfo } from './connectivity';
 import { checkDrawing, type DrawingIssue } from './drawingChecks';
 import { engineValues } from './kinds';
 import { symbolOf } from './symbols';
@@ -27,15 +27,69 @@ export function isDrawing(json: unknown): boolean {
   return typeof json === 'object' && json !== null && (json as { format?: unknown }).format === DRAWING_FORMAT;
 }
 
+// Caches (the live overlay converts the drawing on every edit, and the app's panels convert the
+// same revision again): a frozen document (every revision the editor makes with immer is one)
+// maps to its result by identity; connectivity is kept per geometry key, so an edit that changes
+// only values reuses the nets.
+const byRevision = new WeakMap<object, DrawingNetlist>();
+const CONNECTIVITY_SLOTS = 4;
+const connectivitySlots: { key: string; conn: Connectivity }[] = [];
+
+/** Everything computeConnectivity reads: per part its id, ref (net naming order), kind, place,
+ *  bulk pin and net label; per wire its points. */
+export function geometryKey(doc: DrawingDocument): string {
+  if (!isFrozenDoc(doc)) return makeGeometryKey(doc);
+  let key = geometryKeys.get(doc);
+  if (key === undefined) geometryKeys.set(doc, (key = makeGeometryKey(doc)));
+  return key;
+}
+const geometryKeys = new WeakMap<object, string>();
+
+function makeGeometryKey(doc: DrawingDocument): string {
+  const out: string[] = [];
+  for (const p of Object.values(doc.parts)) out.push(`${p.id}|${p.ref}|${p.kind}|${p.x}|${p.y}|${p.rotation}|${p.mirror ? 1 : 0}|${p.bulk ?? ''}|${p.params?.net ?? ''}`);
+  out.push('#');
+  for (const w of Object.values(doc.wires)) out.push(`${w.id}:${w.points.map((q) => `${q.x},${q.y}`).join(';')}`);
+  return out.join('\n');
+}
+
+/** computeConnectivity(doc), shared by every document of the same geometry (small LRU). The
+ *  result is shared: callers must not change it. */
+export function cachedConnectivity(doc: DrawingDocument): Connectivity {
+  const key = geometryKey(doc);
+  const at = connectivitySlots.findIndex((s) => s.key === key);
+  if (at >= 0) {
+    const [hit] = connectivitySlots.splice(at, 1);
+    connectivitySlots.unshift(hit);
+    return hit.conn;
+  }
+  const conn = computeConnectivity(doc);
+  connectivitySlots.unshift({ key, conn });
+  connectivitySlots.length = Math.min(connectivitySlots.length, CONNECTIVITY_SLOTS);
+  return conn;
+}
+
+const isFrozenDoc = (d: unknown): d is DrawingDocument =>
+  typeof d === 'object' && d !== null && Object.isFrozen(d) && Object.isFrozen((d as DrawingDocument).parts) && Object.isFrozen((d as DrawingDocument).wires);
+
 /** Accepts a document or unchecked JSON (e.g. a file read by the CLI): it is validated (and
  *  migrated) first, so a broken input gives one 'bad-value' issue with field 'file', never a crash. */
 export function documentToNetlist(source: DrawingDocument | unknown): DrawingNetlist {
+  if (!isFrozenDoc(source)) return convert(source);
+  const known = byRevision.get(source);
+  if (known) return known;
+  const made = convert(source);
+  byRevision.set(source, made);
+  return made;
+}
+
+function convert(source: DrawingDocument | unknown): DrawingNetlist {
   const loaded = loadDrawing(source);
   if (!loaded.ok) {
     return { issues: [{ severity: 'error', code: 'bad-value', field: 'file', message: loaded.reason, x: 0, y: 0 }], netOfPin: {}, nets: [], junctions: [] };
   }
   const doc = loaded.doc;
-  const conn = computeConnectivity(doc);
+  const conn = cachedConnectivity(doc);
   const issues = checkDrawing(doc, conn);
   const base = { issues, netOfPin: conn.netOfPin, nets: conn.nets, junctions: conn.junctions };
   if (issues.some((i) => i.severity === 'error')) return base;
