@@ -3,13 +3,13 @@
 // right/left vectors x_i, y_i (Kailath, Linear Systems, §6.3; residue of (G + sC)⁻¹ at λ_i is
 // x_i·y_iᴴ/(y_iᴴ·C·x_i)):
 //   Z_kk(s) = D_k + Σ_i x_ik·ȳ_ik / ((s − λ_i)·y_iᴴCx_i),
-// with the constant D_k fixed at the real shift σ of the shared reduction (Z_kk(σ) from one real
-// solve per node). It is checked against the direct solve (one LU per frequency, one solve per
-// node) at two frequencies; on any mismatch (repeated or defective poles, higher-index
+// with the constant D_k fixed at a real point above every pole (Z_kk there from one real solve per
+// node). It is checked against the direct solve (one LU per frequency, one solve per node) at
+// three frequencies; on any mismatch (repeated or defective poles, higher-index
 // equations) the direct solve is used for every frequency.
 
 import type { Cx, MnaSystem } from '../types';
-import { solveReal } from '../linalg/lu';
+import { scaledLuReal, solveScaledReal } from './scaling';
 import { shiftedReduction, type ShiftedReduction } from './hessenberg';
 import { impedancesAt } from './impedance';
 import { poleVectors, type ModalVectors } from './modal';
@@ -64,14 +64,23 @@ function buildModal(sys: Sys, poles: Pole[], red: ShiftedReduction, vectors?: Mo
     }
     rr.push(a); ri.push(b);
   }
-  // D_k = Z_kk(σ) − Σ_i r_ik/(σ − λ_i)
+  // D_k = Z_kk(σ_d) − Σ_i r_ik/(σ_d − λ_i), pinned at a real σ_d above every pole: there Z_kk is
+  // small and the residue sum nearly vanishes, so the rounding of the residues does not reappear
+  // as cancellation at high frequency, where |Z| is smallest.
+  let fastest = 0;
+  for (let i = 0; i < m; i++) fastest = Math.max(fastest, Math.hypot(lr[i], li[i]));
+  const sd = fastest > 0 ? 10 * fastest : red.sigma;
+  const A = new Float64Array(n * n);
+  for (let k = 0; k < n * n; k++) A[k] = sys.G[k] + sd * C[k];
+  const lu = scaledLuReal(A, n);
+  if (lu.lu.singularAt >= 0) return null;
   const d = new Float64Array(nc);
   const e = new Float64Array(n);
   for (let k = 0; k < nc; k++) {
     e.fill(0); e[k] = 1;
-    let z = solveReal(red.f, e)[k];
+    let z = solveScaledReal(lu, e)[k];
     for (let i = 0; i < m; i++) {
-      const ur = red.sigma - lr[i], ui = -li[i], uu = ur * ur + ui * ui;
+      const ur = sd - lr[i], ui = -li[i], uu = ur * ur + ui * ui;
       z -= (rr[i][k] * ur + ri[i][k] * ui) / uu;
     }
     if (!Number.isFinite(z)) return null;
@@ -126,8 +135,11 @@ export function impedanceSweep(
   const form = buildModal(sys, opts.poles, red, opts.vectors);
   if (!form) return direct();
   const inv = { re: new Float64Array(form.lr.length), im: new Float64Array(form.lr.length) };
-  // Check the modal form against the direct solve at two frequencies of the grid.
-  for (const f of [hz[Math.floor(hz.length / 3)], hz[Math.floor((2 * hz.length) / 3)]]) {
+  // Check the modal form against the direct solve at two inner frequencies of the grid and at its
+  // top, where |Z| is smallest and any cancellation in the residue sum shows first.
+  let top = hz[0];
+  for (const f of hz) if (f > top) top = f;
+  for (const f of [hz[Math.floor(hz.length / 3)], hz[Math.floor((2 * hz.length) / 3)], top]) {
     const ref = impedancesAt(sys, { re: 0, im: 2 * Math.PI * f }).values;
     const got = evalModalAll(form, 2 * Math.PI * f, inv);
     let floor = 0;
