@@ -84,18 +84,31 @@ export function findPartCycles(
   // an upper bound per frequency spares evaluating hopeless cycles: ‖L‖ ≤ ∏ ‖D_PQ‖·‖H_Q‖ (Frobenius),
   // and |det(I − L) − 1| ≤ (1 + ‖L‖)^m − 1 for m × m L (m: the smallest part, as L may start anywhere)
   const F = fz.length;
+  // (its largest value over frequency per edge gives a coarser bound first: the largest product over
+  // frequency is at most the product of the edges' largest values)
   const edgeNorm = new Map<number, Float64Array>();
+  const edgeMax = new Float64Array(P * P);
   const hNorm = cl.h.map((row) => row.map(frobenius));
   for (let a = 0; a < P; a++) {
     for (const b of adj[a]) {
       const v = new Float64Array(F);
-      for (let fi = 0; fi < F; fi++) v[fi] = blockNorm(g, fi, pg.sourcesOf[a], pg.sourcesOf[b]) * hNorm[fi][b];
+      let mx = 0;
+      for (let fi = 0; fi < F; fi++) {
+        v[fi] = blockNorm(g, fi, pg.sourcesOf[a], pg.sourcesOf[b]) * hNorm[fi][b];
+        if (v[fi] > mx) mx = v[fi];
+      }
       edgeNorm.set(a * P + b, v);
+      edgeMax[a * P + b] = mx;
     }
   }
   const size = pg.sourcesOf.map((list) => list.length);
   const prod = new Float64Array(F);
   const bound = (cyc: number[]) => {
+    let m = Infinity;
+    for (const p of cyc) if (size[p] < m) m = size[p];
+    let coarse = 1;
+    for (let k = 0; k < cyc.length; k++) coarse *= edgeMax[cyc[k] * P + cyc[(k + 1) % cyc.length]];
+    if (!(Math.pow(1 + coarse, m) - 1 > threshold)) return 0;
     prod.fill(1);
     for (let k = 0; k < cyc.length; k++) {
       const v = edgeNorm.get(cyc[k] * P + cyc[(k + 1) % cyc.length])!;
@@ -103,8 +116,6 @@ export function findPartCycles(
     }
     let b = 0;
     for (let fi = 0; fi < F; fi++) if (prod[fi] > b) b = prod[fi];
-    let m = Infinity;
-    for (const p of cyc) if (size[p] < m) m = size[p];
     return Math.pow(1 + b, m) - 1;
   };
   const evaluator = new CycleEvaluator(g, pg, cl);

@@ -119,6 +119,30 @@ export class PencilAt {
     return { re, im };
   }
 
+  /** Nonzero columns of each factor row, strictly below (L) and above (U) the diagonal, built on
+   *  first use: MNA factors keep few entries per row, and skipping the zeros leaves every sum as it
+   *  was (the skipped terms are exact zeros). */
+  private pattern?: { lStart: Int32Array; lIdx: Int32Array; uStart: Int32Array; uIdx: Int32Array };
+
+  private rows() {
+    if (this.pattern) return this.pattern;
+    const n = this.n;
+    const a = this.real ? this.real.lu : this.cplx!.re;
+    const b = this.real ? null : this.cplx!.im;
+    const lStart = new Int32Array(n + 1), uStart = new Int32Array(n + 1);
+    const l: number[] = [], u: number[] = [];
+    for (let i = 0; i < n; i++) {
+      lStart[i] = l.length; uStart[i] = u.length;
+      for (let j = 0; j < n; j++) {
+        if (j === i || (a[i * n + j] === 0 && (b === null || b[i * n + j] === 0))) continue;
+        (j < i ? l : u).push(j);
+      }
+    }
+    lStart[n] = l.length; uStart[n] = u.length;
+    this.pattern = { lStart, lIdx: Int32Array.from(l), uStart, uIdx: Int32Array.from(u) };
+    return this.pattern;
+  }
+
   /** Solves M x = b for a real b with few non-zeros (a source's u vector): forward substitution
    *  starts at the first row the permuted b reaches, since L's rows above it only carry zeros. */
   solveSparse(rows: number[], vals: number[]): CVec {
@@ -134,16 +158,20 @@ export class PencilAt {
         if (i < first) first = i;
       }
     }
+    const { lStart, lIdx, uStart, uIdx } = this.rows();
     if (this.real) {
       const { lu } = this.real;
       for (let i = first + 1; i < n; i++) {
         let sr = xr[i];
-        for (let j = first; j < i; j++) sr -= lu[i * n + j] * xr[j];
+        for (let t = lStart[i]; t < lStart[i + 1]; t++) {
+          const j = lIdx[t];
+          if (j >= first) sr -= lu[i * n + j] * xr[j];
+        }
         xr[i] = sr;
       }
       for (let i = n - 1; i >= 0; i--) {
         let sr = xr[i];
-        for (let j = i + 1; j < n; j++) sr -= lu[i * n + j] * xr[j];
+        for (let t = uStart[i]; t < uStart[i + 1]; t++) { const j = uIdx[t]; sr -= lu[i * n + j] * xr[j]; }
         xr[i] = sr / lu[i * n + i];
       }
       return { re: xr, im: xi };
@@ -151,7 +179,9 @@ export class PencilAt {
     const { re, im } = this.cplx!;
     for (let i = first + 1; i < n; i++) {
       let sr = xr[i], si = xi[i];
-      for (let j = first; j < i; j++) {
+      for (let t = lStart[i]; t < lStart[i + 1]; t++) {
+        const j = lIdx[t];
+        if (j < first) continue;
         const lr = re[i * n + j], li = im[i * n + j];
         sr -= lr * xr[j] - li * xi[j];
         si -= lr * xi[j] + li * xr[j];
@@ -160,7 +190,8 @@ export class PencilAt {
     }
     for (let i = n - 1; i >= 0; i--) {
       let sr = xr[i], si = xi[i];
-      for (let j = i + 1; j < n; j++) {
+      for (let t = uStart[i]; t < uStart[i + 1]; t++) {
+        const j = uIdx[t];
         const ur = re[i * n + j], ui = im[i * n + j];
         sr -= ur * xr[j] - ui * xi[j];
         si -= ur * xi[j] + ui * xr[j];
