@@ -59,25 +59,32 @@ export interface Crossing {
   reason?: string;
 }
 
-/** Bisection in log f on |H(f)| = level between fLo (above level) and fHi (below). */
+/** Root of ln|H(f)| = ln(level) in log f between fLo (above level) and fHi (below): regula falsi
+ *  with the Illinois modification (Dowell & Jarratt 1971), superlinear and always bracketed. */
 function polish(ev: TransferEvaluator, fLo: number, fHi: number, level: number, guess: number): number {
-  let lo = Math.log(fLo);
-  let hi = Math.log(fHi);
-  const mag = (lf: number) => { const h = ev.atHz(Math.exp(lf)); return h ? Math.hypot(h.re, h.im) : NaN; };
+  let a = Math.log(fLo);
+  let b = Math.log(fHi);
+  const g = (lf: number) => { const h = ev.atHz(Math.exp(lf)); return h ? Math.log(Math.hypot(h.re, h.im) / level) : NaN; };
+  let ga = g(a), gb = g(b);
   // The grid said the pair brackets the level; rounding can put an end point exactly on it.
-  if (!(mag(lo) >= level)) return fLo;
-  if (!(mag(hi) < level)) return fHi;
+  if (!(ga >= 0)) return fLo;
+  if (!(gb < 0)) return fHi;
   if (guess > fLo && guess < fHi) {
-    const mg = mag(Math.log(guess));
-    if (mg >= level) lo = Math.log(guess); else if (mg < level) hi = Math.log(guess);
+    const lg = Math.log(guess), gg = g(lg);
+    if (gg >= 0) { a = lg; ga = gg; } else if (gg < 0) { b = lg; gb = gg; }
   }
-  for (let it = 0; it < 80 && hi - lo > 1e-13; it++) {
-    const mid = 0.5 * (lo + hi);
-    const m = mag(mid);
-    if (!Number.isFinite(m)) break;
-    if (m >= level) lo = mid; else hi = mid;
+  let kept = 0; // +1: a kept on the last step, −1: b kept
+  for (let it = 0; it < 100 && b - a > 1e-13; it++) {
+    let c = (a * gb - b * ga) / (gb - ga);
+    // Bisect when the secant point is not strictly inside (flat or rounding-level bracket).
+    if (!(c > a && c < b) || it % 8 === 7) c = 0.5 * (a + b);
+    const gc = g(c);
+    if (!Number.isFinite(gc)) break;
+    if (gc === 0) return Math.exp(c);
+    if (gc < 0) { b = c; gb = gc; if (kept === 1) ga *= 0.5; kept = 1; }
+    else { a = c; ga = gc; if (kept === -1) gb *= 0.5; kept = -1; }
   }
-  return Math.exp(0.5 * (lo + hi));
+  return Math.exp(0.5 * (a + b));
 }
 
 /** First frequency on the sweep where |H| falls from ≥ level to < level, polished. */

@@ -54,25 +54,42 @@ function rotateLargestReal(re: Float64Array, im: Float64Array): void {
   im[k] = 0;
 }
 
-/** out ← M·v (conjugate-transposed when adjoint), M real, v complex. */
-function realTimesComplex(M: Float64Array, n: number, vr: Float64Array, vi: Float64Array,
+/** A real n×n matrix by rows, zeros left out (MNA matrices have a few entries per row). */
+interface SparseRows { start: Int32Array; col: Int32Array; val: Float64Array }
+
+function sparseRows(M: Float64Array, n: number): SparseRows {
+  const start = new Int32Array(n + 1);
+  let m = 0;
+  for (let k = 0; k < n * n; k++) if (M[k] !== 0) m++;
+  const col = new Int32Array(m), val = new Float64Array(m);
+  m = 0;
+  for (let i = 0; i < n; i++) {
+    start[i] = m;
+    for (let j = 0; j < n; j++) { const v = M[i * n + j]; if (v !== 0) { col[m] = j; val[m] = v; m++; } }
+  }
+  start[n] = m;
+  return { start, col, val };
+}
+
+/** out ← M·v (Mᵀ·v when adjoint; M is real so Mᴴ = Mᵀ), v complex. */
+function realTimesComplex(M: SparseRows, n: number, vr: Float64Array, vi: Float64Array,
   outR: Float64Array, outI: Float64Array, adjoint: boolean): void {
+  const { start, col, val } = M;
   outR.fill(0); outI.fill(0);
   for (let i = 0; i < n; i++) {
-    const row = i * n;
     if (adjoint) {
       const a = vr[i], b = vi[i];
       if (a === 0 && b === 0) continue;
-      for (let j = 0; j < n; j++) { const m = M[row + j]; outR[j] += m * a; outI[j] += m * b; }
+      for (let t = start[i]; t < start[i + 1]; t++) { const j = col[t], m = val[t]; outR[j] += m * a; outI[j] += m * b; }
     } else {
       let sr = 0, si = 0;
-      for (let j = 0; j < n; j++) { const m = M[row + j]; sr += m * vr[j]; si += m * vi[j]; }
+      for (let t = start[i]; t < start[i + 1]; t++) { const j = col[t], m = val[t]; sr += m * vr[j]; si += m * vi[j]; }
       outR[i] = sr; outI[i] = si;
     }
   }
 }
 
-function iterate(f: ComplexLU, B: Float64Array, n: number, adjoint: boolean): [Float64Array, Float64Array] | null {
+function iterate(f: ComplexLU, B: SparseRows, n: number, adjoint: boolean): [Float64Array, Float64Array] | null {
   let xr = start(n, adjoint ? 2 : 1), xi = start(n, adjoint ? 4 : 3);
   const tr = new Float64Array(n), ti = new Float64Array(n);
   for (let step = 0; step < STEPS; step++) {
@@ -99,34 +116,33 @@ export function eigenvectorPair(A: Float64Array, B: Float64Array, n: number,
   const mag = Math.hypot(lambda.re, lambda.im);
   const scale = mag > 0 ? mag : nA / Math.max(nB, 1e-300);
   const Mr = new Float64Array(n * n), Mi = new Float64Array(n * n);
+  const As = sparseRows(A, n), Bs = sparseRows(B, n);
   for (const offset of OFFSETS) {
     // Off λ along a fixed slanted direction, so a real λ also gets a non-real shift.
     const sr = lambda.re + offset * scale * 0.6, si = lambda.im + offset * scale * 0.8;
     for (let k = 0; k < n * n; k++) { Mr[k] = A[k] - sr * B[k]; Mi[k] = -si * B[k]; }
-    const f = luComplex(Mr, Mi, n, 0);
-    const right = iterate(f, B, n, false);
-    const left = right && iterate(f, B, n, true);
+    const f = luComplex(Mr, Mi, n, 0, true);
+    const right = iterate(f, Bs, n, false);
+    const left = right && iterate(f, Bs, n, true);
     if (!right || !left) continue;
     const [xr, xi] = right, [yr, yi] = left;
     rotateLargestReal(xr, xi);
     rotateLargestReal(yr, yi);
-    return { rightRe: xr, rightIm: xi, leftRe: yr, leftIm: yi, residual: rightResidual(A, B, n, lambda, xr, xi, nA, nB) };
+    return { rightRe: xr, rightIm: xi, leftRe: yr, leftIm: yi, residual: rightResidual(As, Bs, n, lambda, xr, xi, nA, nB) };
   }
   return none();
 }
 
 /** ‖(A − λB)x‖ / ((‖A‖ + |λ|‖B‖)‖x‖). */
-function rightResidual(A: Float64Array, B: Float64Array, n: number, lambda: { re: number; im: number },
+function rightResidual(A: SparseRows, B: SparseRows, n: number, lambda: { re: number; im: number },
   xr: Float64Array, xi: Float64Array, nA: number, nB: number): number {
+  const ar = new Float64Array(n), ai = new Float64Array(n), br = new Float64Array(n), bi = new Float64Array(n);
+  realTimesComplex(A, n, xr, xi, ar, ai, false);
+  realTimesComplex(B, n, xr, xi, br, bi, false);
   let s = 0, xn = 0;
   for (let i = 0; i < n; i++) {
-    let ar = 0, ai = 0, br = 0, bi = 0;
-    for (let j = 0; j < n; j++) {
-      const a = A[i * n + j], b = B[i * n + j];
-      ar += a * xr[j]; ai += a * xi[j]; br += b * xr[j]; bi += b * xi[j];
-    }
-    const rr = ar - (lambda.re * br - lambda.im * bi);
-    const ri = ai - (lambda.re * bi + lambda.im * br);
+    const rr = ar[i] - (lambda.re * br[i] - lambda.im * bi[i]);
+    const ri = ai[i] - (lambda.re * bi[i] + lambda.im * br[i]);
     s += rr * rr + ri * ri;
     xn += xr[i] * xr[i] + xi[i] * xi[i];
   }
