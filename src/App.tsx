@@ -169,8 +169,7 @@ export function App({ editor, examples = [], storage = typeof localStorage === '
           <>
             <GridLayer camera={camera} width={size.width} height={size.height} />
             <PartsLayer doc={doc} selection={selection} hover={state.hover} />
-            <AnalysisWireLayer doc={doc} ann={live.ann} netOfWire={live.netOfWire} lit={live.lit} scale={camera.scale}
-              loop={live.state.settings.selectedLoopId ? live.state.loops[live.state.settings.selectedLoopId] : null} netOfPin={live.state.drawing?.netOfPin} />
+            <AnalysisWireLayer doc={doc} ann={live.ann} netOfWire={live.netOfWire} lit={live.lit} scale={camera.scale} />
             <OverlayLayer junctions={analysis.junctions} issues={analysis.issues} scale={camera.scale} showIssues={showIssues} />
             <InteractionLayer state={state} scale={camera.scale} />
           </>

@@ -9,7 +9,9 @@ import { formatFrequency, parseFrequency } from './overlayModel';
 export const BUSY_DELAY_MS = 150;
 
 export function AnalysisHud({ state, actions, ann }: { state: LiveState; actions: LiveActions; ann: SchematicAnnotations | null }) {
-  const busy = useDelayedFlag(state.status === 'busy', BUSY_DELAY_MS);
+  // The overlay is behind the drawing only until stage 1 lands; the feedback stage after it has
+  // its own quieter mark.
+  const busy = useDelayedFlag(state.status === 'busy' && state.stage === 0, BUSY_DELAY_MS);
   const legend = ann?.legend ?? null;
   return (
     <div className="ao-hud" aria-label="Analysis display">

@@ -6,7 +6,6 @@ import { Arrow, Circle, Group, Layer, Line } from 'react-konva';
 import type { DrawingDocument } from '../schematic/document';
 import type { SchematicAnnotations } from '../export/annotations';
 import { INK } from './theme';
-import type { LoopEntry } from '../live/types';
 
 /** Loop path colour: a magenta outside the blue → amber impedance palette. */
 export const LOOP_COLOR = '#b0177a';
@@ -21,10 +20,6 @@ interface Props {
   netOfWire: Map<string, string>;
   lit: ReadonlySet<string>;
   scale: number;
-  /** Unused: annotate() already routes ann.loop through the member parts (kept so callers that
-   *  still pass them type-check). */
-  loop?: LoopEntry | null;
-  netOfPin?: Record<string, string>;
 }
 
 function AnalysisWireLayerView({ doc, ann, netOfWire, lit, scale }: Props) {

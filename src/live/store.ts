@@ -4,8 +4,10 @@
 import { documentToNetlist } from '../schematic/toNetlist';
 import type { DrawingDocument } from '../schematic/document';
 import { createAnalysisRunner } from '../worker/runner';
-import type { AnalysisRunner, RunMessage } from '../worker/protocol';
+import { computeLoopDetail } from '../worker/loopDetail';
+import type { AnalysisRunner, LoopDetailRequest, WorkerMessage } from '../worker/protocol';
 import { drawingIssues, engineIssues } from './issues';
+import { arrivals, perfDuration, perfMeasure, perfNow } from './perfMarks';
 import { DEFAULT_SETTINGS, type LiveSettings, type LiveState, type LiveStore, type LoopEntry } from './types';
 
 export interface LiveStoreOptions {
@@ -21,7 +23,7 @@ export function createLiveStore(opts: LiveStoreOptions = {}): LiveStore {
   const runner = opts.runner ?? createAnalysisRunner();
   const throttleMs = opts.throttleMs ?? DEFAULT_THROTTLE_MS;
   let state: LiveState = {
-    runId: 0, status: 'idle', stage: 0, feedbackPending: false, result: null, feedback: null, blackman: {},
+    runId: 0, status: 'idle', stage: 0, feedbackPending: false, result: null, feedback: null, blackman: {}, loopDetail: null,
     issues: [], doc: null, drawing: null, netlist: null,
     settings: { ...DEFAULT_SETTINGS, ...opts.settings }, loops: {}, pinnedA: null, failure: null, runner: runner.kind,
   };
@@ -37,10 +39,15 @@ export function createLiveStore(opts: LiveStoreOptions = {}): LiveStore {
   let trailing: ReturnType<typeof setTimeout> | null = null;
   let queuedDoc: DrawingDocument | null = null;
   let disposed = false;
+  let submittedAt = 0;
+  let detailSeq = 0;
+  const detailTimers = new Set<ReturnType<typeof setTimeout>>();
 
   const start = (doc: DrawingDocument, force: boolean) => {
     lastRunAt = Date.now();
+    const t0 = perfNow();
     const drawing = documentToNetlist(doc);
+    perfMeasure('netlist', t0);
     const issues = drawingIssues(drawing);
     if (!drawing.netlist) {
       lastNetlistKey = '';
@@ -59,11 +66,17 @@ export function createLiveStore(opts: LiveStoreOptions = {}): LiveStore {
     const offLoops = state.settings.offLoopIds;
     const offSources = offLoops.map((id) => state.loops[id]?.key).filter((k): k is string => !!k);
     set({ runId, status: 'busy', stage: 0, feedbackPending: true, issues, doc, drawing, netlist: drawing.netlist, failure: null });
+    submittedAt = perfNow();
     runner.run({ runId, netlist: drawing.netlist, frequencyHz: state.settings.frequencyHz, offSources, offLoops });
   };
 
-  const onMessage = (m: RunMessage) => {
-    if (disposed || m.runId !== state.runId) return; // stale run: dropped
+  const onMessage = (m: WorkerMessage) => {
+    if (disposed) return;
+    if (m.stage === 'loopDetail') {
+      if (m.detail.id === detailSeq) set({ loopDetail: m.detail });
+      return;
+    }
+    if (m.runId !== state.runId) return; // stale run: dropped
     if (runner.kind !== state.runner) state = { ...state, runner: runner.kind };
     if (m.stage === 'dropped') return;
     if (m.stage === 'failed') {
@@ -72,14 +85,26 @@ export function createLiveStore(opts: LiveStoreOptions = {}): LiveStore {
     }
     const doc = state.doc!, drawing = state.drawing!;
     if (m.stage === 1) {
+      const t0 = perfNow();
+      arrivals.stage1 = t0;
+      perfDuration('engine-stage1', m.ms);
+      perfMeasure('wait-stage1', submittedAt, t0);
       const placed = engineIssues(m.result.issues, doc, drawing);
       set({
         stage: 1, result: m.result, feedback: null, blackman: {},
         status: m.result.ok ? 'busy' : 'error', feedbackPending: m.result.ok,
         issues: [...drawingIssues(drawing), ...placed],
       });
+      perfMeasure('apply-stage1', t0);
       return;
     }
+    if (m.stage === 'sweep') {
+      perfDuration('engine-sweep', m.ms);
+      // Same node table: the overlay (keyed by result.nodes) is not drawn again.
+      if (state.result && state.stage === 1) set({ result: { ...state.result, impedanceSweep: m.impedanceSweep } });
+      return;
+    }
+    perfDuration('engine-stage2', m.ms);
     const loops: Record<string, LoopEntry> = {};
     for (const id of state.settings.offLoopIds) if (state.loops[id]) loops[id] = state.loops[id];
     for (const r of m.feedback.loops) loops[r.loop.id] = { id: r.loop.id, label: r.loop.label, key: r.loop.key, nets: r.loop.nets, parts: [...new Set(r.loop.members.map((m) => m.part))] };
@@ -151,8 +176,20 @@ export function createLiveStore(opts: LiveStoreOptions = {}): LiveStore {
       },
       clearPin: () => set({ pinnedA: null }),
       rerun,
+      askLoopDetail(ask) {
+        detailSeq += 1;
+        const req: LoopDetailRequest = { kind: 'loopDetail', id: detailSeq, ...ask };
+        if (runner.loopDetail) runner.loopDetail(req);
+        else {
+          // a runner without loop details (test doubles): compute it on this thread, deferred
+          const t = setTimeout(() => { detailTimers.delete(t); onMessage({ stage: 'loopDetail', detail: computeLoopDetail(req) }); }, 0);
+          detailTimers.add(t);
+        }
+        return detailSeq;
+      },
       dispose() {
         disposed = true;
+        detailTimers.forEach(clearTimeout);
         clearTrailing();
         runner.dispose();
         listeners.clear();

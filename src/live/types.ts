@@ -7,6 +7,7 @@ import type { BlackmanResult, FeedbackResult } from '../engine/feedback/index';
 import type { DrawingDocument } from '../schematic/document';
 import type { DrawingIssue } from '../schematic/drawingChecks';
 import type { DrawingNetlist } from '../schematic/toNetlist';
+import type { LoopDetail, LoopDetailRequest } from '../worker/loopDetail';
 
 /** idle: the shown result belongs to the current drawing; busy: a run is under way (the previous
  *  result stays shown); error: the drawing or the engine reported an error (see `issues`). */
@@ -77,6 +78,8 @@ export interface LiveState {
   feedback: FeedbackResult | null;
   /** Blackman factors per loop key at settings.frequencyHz (for the wire read-out). */
   blackman: Record<string, BlackmanResult>;
+  /** Answer to the newest askLoopDetail() (its id says which ask), null before the first. */
+  loopDetail: LoopDetail | null;
   /** Drawing checks + engine errors of the current drawing, placed where possible. */
   issues: LiveIssue[];
   /** The drawing and its netlist the shown result belongs to. */
@@ -92,6 +95,9 @@ export interface LiveState {
   /** Where runs execute: 'worker', or 'same-thread' (no Worker, or it could not start). */
   runner: 'worker' | 'same-thread';
 }
+
+/** A loop-detail request without its kind and id (the store numbers them). */
+export type LoopDetailAsk = Omit<LoopDetailRequest, 'kind' | 'id'>;
 
 export interface SubmitOptions {
   /** An ongoing drag: re-runs are throttled (leading + trailing) instead of run on every move. */
@@ -116,6 +122,9 @@ export interface LiveActions {
   clearPin(): void;
   /** Re-run the current drawing (e.g. after a settings change). */
   rerun(): void;
+  /** Ask the worker for a loop's T(jω) or root locus; returns the ask's id (the answer lands in
+   *  state.loopDetail with that id; answers to older asks are dropped). */
+  askLoopDetail(ask: LoopDetailAsk): number;
   dispose(): void;
 }
 

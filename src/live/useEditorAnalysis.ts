@@ -1,13 +1,14 @@
 // Wires an editor to a live analysis store: every document change is submitted (drags throttled),
 // the wire under the pointer becomes the hovered net, and the overlay's data is derived once here
 // for the canvas layer, the HTML marks and the legend.
-import { useEffect, useMemo, useRef, useState } from 'react';
+import { useEffect, useLayoutEffect, useMemo, useRef, useState } from 'react';
 import type { Editor } from '../editor/types';
 import { liveAnnotations } from './annotateLive';
 import { createLiveStore } from './store';
 import type { LiveStore } from './types';
 import { useAnalysis } from './useAnalysis';
 import { netOfWire, netsOfPole } from '../canvas/overlayModel';
+import { arrivals, perfMeasure, perfNow } from './perfMarks';
 
 /** The given store, or one owned by the calling component (disposed when it unmounts). */
 function useOwnedStore(given?: LiveStore): LiveStore {
@@ -57,11 +58,22 @@ export function useEditorAnalysis(editor: Editor, given?: LiveStore) {
   }, [actions, picked]);
 
   const s = state.settings;
+  // annotate() reads the result's node table and conditions only: the sweep merged into the
+  // result later, or a feedback stage that leaves the selected loop as it was, draw nothing new.
+  const selectedLoop = s.selectedLoopId ? state.loops[s.selectedLoopId] : undefined;
+  const loopKey = selectedLoop ? JSON.stringify(selectedLoop) : '';
   const ann = useMemo(
-    () => liveAnnotations(state),
+    () => {
+      const t0 = perfNow();
+      const out = liveAnnotations(state);
+      perfMeasure('annotate', t0);
+      return out;
+    },
     // eslint-disable-next-line react-hooks/exhaustive-deps
-    [state.doc, state.result, state.loops, s.frequencyHz, s.colorMode, s.selectedLoopId],
+    [state.doc, state.result?.ok, state.result?.nodes, state.result?.conditions, loopKey, s.frequencyHz, s.colorMode, s.selectedLoopId],
   );
+  // stage-1 arrival → this render committed (React work of the whole tree for the new result)
+  useLayoutEffect(() => { if (arrivals.stage1 > 0) perfMeasure('render-stage1', arrivals.stage1); }, [state.result?.nodes]);
   const lit = useMemo(() => {
     const set = new Set(netsOfPole(state.result, s.hoveredPoleIndex));
     if (s.hoveredNet) set.add(s.hoveredNet);

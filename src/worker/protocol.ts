@@ -1,10 +1,18 @@
-// Messages between the live store and the analysis worker. A run answers in two stages: the basic
-// analysis first (poles, node table), then the feedback analysis (several times slower). Every
-// message carries the run id of its request, so the receiver can drop answers of stale runs.
-import type { AnalysisResult, Netlist } from '../engine/index';
+// Messages between the live store and the analysis worker. A run answers in stages: stage 1 is
+// what the canvas overlay draws (poles, node table: analyze() without the node-impedance sweep),
+// then the sweep of every node's impedance (for the |Z(f)| plot), then stage 2, the feedback
+// analysis (several times slower). Every run message carries the run id of its request, so the
+// receiver can drop answers of stale runs. A loop-detail request (the selected loop's T(jω) or
+// root locus, loopDetail.ts) is the other request kind; it is answered after the stages of the
+// current run, newest request only.
+import type { AnalysisResult, ImpedanceSweep, Netlist } from '../engine/index';
 import type { BlackmanResult, FeedbackResult } from '../engine/feedback/index';
+import type { LoopDetail, LoopDetailRequest } from './loopDetail';
+
+export type { LoopDetail, LoopDetailRequest };
 
 export interface RunRequest {
+  kind?: 'run';
   runId: number;
   netlist: Netlist;
   /** Frequency of the node impedance column (Hz); 0 = DC. */
@@ -17,20 +25,34 @@ export interface RunRequest {
   feedback?: boolean;
 }
 
+export type WorkerRequest = RunRequest | LoopDetailRequest;
+
+/** `ms`: compute time of the stage inside the worker (for the performance marks). */
 export type RunMessage =
-  | { runId: number; stage: 1; result: AnalysisResult }
-  | { runId: number; stage: 2; feedback: FeedbackResult; blackman: Record<string, BlackmanResult> }
+  | { runId: number; stage: 1; result: AnalysisResult; ms?: number }
+  /** Every node's impedance over the sweep grid of the stage-1 result (null when not computed). */
+  | { runId: number; stage: 'sweep'; impedanceSweep: ImpedanceSweep | null; ms?: number }
+  | { runId: number; stage: 2; feedback: FeedbackResult; blackman: Record<string, BlackmanResult>; ms?: number }
   /** The run was superseded before it finished (no more messages for it). */
   | { runId: number; stage: 'dropped' }
   /** The worker itself failed (not a circuit error: those come as result issues). */
   | { runId: number; stage: 'failed'; message: string };
 
+export interface LoopDetailMessage { stage: 'loopDetail'; detail: LoopDetail; ms?: number }
+
+export type WorkerMessage = RunMessage | LoopDetailMessage;
+
+export const isLoopDetailRequest = (r: WorkerRequest): r is LoopDetailRequest => r.kind === 'loopDetail';
+
 /** Runs analysis requests somewhere (a Web Worker, or the same thread as a fallback). */
 export interface AnalysisRunner {
   /** Start a run; a newer run supersedes older ones (their later stages may be skipped). */
   run(req: RunRequest): void;
-  /** Receive every message of every run (the store filters by run id). */
-  onMessage(fn: (msg: RunMessage) => void): void;
+  /** Ask for a loop's detail; a newer ask supersedes an older one not yet started. Runners
+   *  without it (test doubles) make the store compute the detail on the same thread. */
+  loopDetail?(req: LoopDetailRequest): void;
+  /** Receive every message of every run and every loop detail (the store filters by run id). */
+  onMessage(fn: (msg: WorkerMessage) => void): void;
   dispose(): void;
   /** 'worker' or 'same-thread' (a worker runner that fell back reports 'same-thread'). */
   readonly kind: 'worker' | 'same-thread';

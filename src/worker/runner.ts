@@ -1,26 +1,29 @@
 // Where runs execute: a Web Worker when the platform has one (the canvas never waits for the
-// engine), else on the same thread in small steps (jsdom, tests, the CLI).
+// engine), else on the same thread in small steps (jsdom, tests, the CLI). Both take the same two
+// request kinds (protocol.ts): runs and loop-detail requests.
 import { createScheduler } from './scheduler';
-import type { AnalysisRunner, RunMessage, RunRequest } from './protocol';
+import type { AnalysisRunner, LoopDetailRequest, RunRequest, WorkerMessage, WorkerRequest } from './protocol';
 
 export function createSameThreadRunner(): AnalysisRunner {
-  const listeners: ((m: RunMessage) => void)[] = [];
+  const listeners: ((m: WorkerMessage) => void)[] = [];
   const scheduler = createScheduler((m) => { for (const fn of listeners) fn(m); });
   return {
     kind: 'same-thread',
     run: (req) => scheduler.push(req),
+    loopDetail: (req) => scheduler.push(req),
     onMessage: (fn) => { listeners.push(fn); },
     dispose: () => scheduler.stop(),
   };
 }
 
 export function createWorkerRunner(): AnalysisRunner {
-  const listeners: ((m: RunMessage) => void)[] = [];
-  const emit = (m: RunMessage) => { for (const fn of listeners) fn(m); };
+  const listeners: ((m: WorkerMessage) => void)[] = [];
+  const emit = (m: WorkerMessage) => { for (const fn of listeners) fn(m); };
   let fallback: AnalysisRunner | null = null;
-  let last: RunRequest | null = null;
+  let lastRun: RunRequest | null = null;
+  let lastDetail: LoopDetailRequest | null = null;
   const worker = new Worker(new URL('./analysis.worker.ts', import.meta.url), { type: 'module' });
-  worker.onmessage = (e: MessageEvent<RunMessage>) => emit(e.data);
+  worker.onmessage = (e: MessageEvent<WorkerMessage>) => emit(e.data);
   // A worker that cannot start (blocked, failed to load) hands over to the same-thread runner.
   worker.onerror = (e) => {
     e.preventDefault?.();
@@ -28,14 +31,21 @@ export function createWorkerRunner(): AnalysisRunner {
     worker.terminate();
     fallback = createSameThreadRunner();
     fallback.onMessage(emit);
-    if (last) fallback.run(last);
+    if (lastRun) fallback.run(lastRun);
+    if (lastDetail) fallback.loopDetail!(lastDetail);
   };
+  const send = (req: WorkerRequest) => worker.postMessage(req);
   return {
     get kind() { return fallback ? 'same-thread' as const : 'worker' as const; },
     run(req) {
-      last = req;
+      lastRun = req;
       if (fallback) fallback.run(req);
-      else worker.postMessage(req);
+      else send(req);
+    },
+    loopDetail(req) {
+      lastDetail = req;
+      if (fallback) fallback.loopDetail!(req);
+      else send(req);
     },
     onMessage: (fn) => { listeners.push(fn); },
     dispose() { worker.terminate(); fallback?.dispose(); },

@@ -1,60 +1,99 @@
-// One run at a time, newest wins: stage 1, then a yield to the event loop (so a newer request can
-// arrive), then stage 2 unless superseded. Shared by the worker and the same-thread fallback.
-import { runStage1, runStage2 } from './compute';
-import type { RunMessage, RunRequest } from './protocol';
+// One task at a time, newest wins, with a yield to the event loop between tasks (so a newer
+// request can arrive): stage 1 of the newest run, then its node-impedance sweep, then its stage 2
+// (each skipped once a newer run is pending), then the newest loop-detail request. Shared by the
+// worker and the same-thread fallback.
+import { runOverlayStage, runStage2, runSweepStage } from './compute';
+import { computeLoopDetail } from './loopDetail';
+import { isLoopDetailRequest, type LoopDetailRequest, type RunRequest, type WorkerMessage, type WorkerRequest } from './protocol';
+import type { AnalysisResult } from '../engine/index';
 
 export interface Scheduler {
-  push(req: RunRequest): void;
+  push(req: WorkerRequest): void;
   /** Stop: pending work is dropped silently. */
   stop(): void;
 }
 
 const errText = (e: unknown) => (e instanceof Error ? e.message : String(e));
+const clock = () => (typeof performance !== 'undefined' ? performance.now() : Date.now());
 
-export function createScheduler(post: (msg: RunMessage) => void, yieldNow: (fn: () => void) => void = (fn) => setTimeout(fn, 0)): Scheduler {
+type Later = { req: RunRequest; next: 'sweep' | 'feedback'; result: AnalysisResult };
+
+export function createScheduler(post: (msg: WorkerMessage) => void, yieldNow: (fn: () => void) => void = (fn) => setTimeout(fn, 0)): Scheduler {
   let pending: RunRequest | null = null;
+  let later: Later | null = null;
+  let detail: LoopDetailRequest | null = null;
   let busy = false;
   let stopped = false;
 
-  const supersede = (req: RunRequest) => {
-    if (pending && pending !== req) post({ runId: req.runId, stage: 'dropped' });
-    return pending !== null && pending !== req;
+  const timed = <T>(fn: () => T): [T, number] => {
+    const t0 = clock();
+    const v = fn();
+    return [v, clock() - t0];
+  };
+
+  const stage1 = (req: RunRequest) => {
+    try {
+      const [result, ms] = timed(() => runOverlayStage(req));
+      post({ runId: req.runId, stage: 1, result, ms });
+      later = result.ok ? { req, next: 'sweep', result } : null;
+    } catch (e) {
+      post({ runId: req.runId, stage: 'failed', message: `analysis: ${errText(e)}` });
+    }
+  };
+
+  const continueRun = (l: Later) => {
+    const { req } = l;
+    if (l.next === 'sweep') {
+      try {
+        const [impedanceSweep, ms] = timed(() => runSweepStage(req, l.result));
+        post({ runId: req.runId, stage: 'sweep', impedanceSweep, ms });
+      } catch (e) {
+        post({ runId: req.runId, stage: 'sweep', impedanceSweep: null });
+        void e; // the overlay and the plots other than |Z(f)| stand; the plot says it is missing
+      }
+      later = req.feedback === false ? null : { ...l, next: 'feedback' };
+      return;
+    }
+    later = null;
+    try {
+      const [{ feedback, blackman }, ms] = timed(() => runStage2(req));
+      post({ runId: req.runId, stage: 2, feedback, blackman, ms });
+    } catch (e) {
+      post({ runId: req.runId, stage: 'failed', message: `feedback analysis: ${errText(e)}` });
+    }
   };
 
   const step = () => {
     if (stopped) return;
-    const req = pending;
-    pending = null;
-    if (!req) { busy = false; return; }
-    busy = true;
-    try {
-      post({ runId: req.runId, stage: 1, result: runStage1(req) });
-    } catch (e) {
-      post({ runId: req.runId, stage: 'failed', message: `analysis: ${errText(e)}` });
-      yieldNow(step);
+    if (pending) {
+      if (later) { post({ runId: later.req.runId, stage: 'dropped' }); later = null; }
+      const req = pending;
+      pending = null;
+      stage1(req);
+    } else if (later) {
+      continueRun(later);
+    } else if (detail) {
+      const req = detail;
+      detail = null;
+      const [d, ms] = timed(() => computeLoopDetail(req));
+      post({ stage: 'loopDetail', detail: d, ms });
+    } else {
+      busy = false;
       return;
     }
-    if (req.feedback === false) { yieldNow(step); return; }
-    yieldNow(() => {
-      if (stopped) return;
-      if (supersede(req)) { step(); return; }
-      try {
-        const { feedback, blackman } = runStage2(req);
-        post({ runId: req.runId, stage: 2, feedback, blackman });
-      } catch (e) {
-        post({ runId: req.runId, stage: 'failed', message: `feedback analysis: ${errText(e)}` });
-      }
-      yieldNow(step);
-    });
+    yieldNow(step);
   };
 
   return {
     push(req) {
       if (stopped) return;
-      if (pending) post({ runId: pending.runId, stage: 'dropped' });
-      pending = req;
+      if (isLoopDetailRequest(req)) detail = req;
+      else {
+        if (pending) post({ runId: pending.runId, stage: 'dropped' });
+        pending = req;
+      }
       if (!busy) { busy = true; yieldNow(step); }
     },
-    stop() { stopped = true; pending = null; },
+    stop() { stopped = true; pending = null; later = null; detail = null; },
   };
 }

@@ -1,23 +1,19 @@
 // Browser bench (not a test, never asserts): time from an edit to the updated analysis overlay in
 // Chromium, on an invented drawing of 60 MNA unknowns. Run: `npx tsx tests/bench/browser-bench.ts`.
-// Method: build the app, serve it, open the drawing, change one resistor's value in the property
-// panel, then alternate the top bar's Undo / Redo. Each click stamps performance.now() in the
-// page (capture listener, before the app sees it); a MutationObserver stamps the first change of
-// the overlay's badge texts/titles, and the next requestAnimationFrame stamps the frame that shows
-// it. No app hook is needed: the overlay DOM is the thing measured.
-import { existsSync, mkdtempSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
-import { fileURLToPath } from 'node:url';
+// Method: build the app, serve it (tests/browser/harness.ts), open the drawing, change one
+// resistor's value in the property panel, then alternate the top bar's Undo / Redo. Each click
+// stamps performance.now() in the page (capture listener, before the app sees it); a
+// MutationObserver stamps the first change of the overlay's badge texts/titles, and the next
+// requestAnimationFrame stamps the frame that shows it. The app's own performance measures
+// ("ps:" names, src/live/perfMarks.ts) split each edit into netlist, worker, annotate and paint.
 import { netlistToDrawing } from '../../src/layout/importNetlist';
 import { nodeElk } from '../../src/layout/elkNode';
 import { saveDrawing } from '../../src/schematic/file';
 import { documentToNetlist } from '../../src/schematic/toNetlist';
 import { analyze } from '../../src/engine/index';
 import { placedBounds } from '../../src/schematic/symbols';
+import { artifactPath, buildAndServe, HAVE_CHROMIUM, INSTALL_HINT, launchBrowser } from '../browser/harness';
 
-const ROOT = fileURLToPath(new URL('../..', import.meta.url));
-const CHROMIUM = process.env.CHROMIUM_PATH || '/usr/bin/chromium';
 const EDITS = Number(process.env.BENCH_EDITS ?? 16);
 
 /** Invented chain: 19 common-source stages, each loaded by R and followed by a two-section RC. */
@@ -45,8 +41,13 @@ function chainNetlist(stages: number) {
   };
 }
 
+interface Stamp { t0: number; t1: number; t2: number; snap: string; measures: { name: string; start: number; ms: number }[] }
+
+const med = (v: number[]) => { const s = [...v].sort((a, b) => a - b); return s.length ? s[Math.floor(s.length / 2)] : NaN; };
+const fmt = (v: number) => (Number.isFinite(v) ? v.toFixed(1) : '—');
+
 async function main() {
-  if (!existsSync(CHROMIUM)) { console.log(`browser bench skipped: no Chromium at ${CHROMIUM}`); return; }
+  if (!HAVE_CHROMIUM) { console.log(INSTALL_HINT); return; }
   const imported = await netlistToDrawing(chainNetlist(19), nodeElk());
   if (!imported.ok) { console.log('bench drawing could not be made:', imported.messages.join('; ')); return; }
   const doc = imported.doc;
@@ -54,21 +55,12 @@ async function main() {
   const unknowns = engineCheck.unknowns.nodes + engineCheck.unknowns.branches;
   console.log(`drawing: ${Object.keys(doc.parts).length} parts, ${unknowns} MNA unknowns (${engineCheck.unknowns.nodes} nodes + ${engineCheck.unknowns.branches} branches)`);
 
-  const { build, preview } = await import('vite');
-  const configFile = join(ROOT, 'src', 'vite.config.ts');
-  const outDir = mkdtempSync(join(tmpdir(), 'polesketch-bench-'));
-  await build({ configFile, logLevel: 'error', build: { outDir, emptyOutDir: true } });
-  const server = await preview({ configFile, logLevel: 'error', build: { outDir }, preview: { port: 0, host: '127.0.0.1', strictPort: false } });
-  const url = server.resolvedUrls?.local[0] ?? `http://127.0.0.1:${(server.httpServer.address() as { port: number }).port}/`;
-  const { chromium } = await import('playwright-core');
-  const browser = await chromium.launch({
-    executablePath: CHROMIUM,
-    args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run'],
-  });
+  const served = await buildAndServe();
+  const { browser, page } = await launchBrowser();
   try {
-    const page = await (await browser.newContext({ viewport: { width: 1440, height: 900 } })).newPage();
-    await page.addInitScript('window.__name = (f) => f'); // tsx keeps function names with a helper the page lacks
-    await page.goto(url);
+    // tsx keeps function names with a helper the page lacks; the flag turns on the app's ps: measures
+    await page.addInitScript('window.__name = (f) => f; window.POLESKETCH_PERF = true;');
+    await page.goto(served.url);
     await page.waitForSelector('canvas', { timeout: 20000 });
     await page.setInputFiles('[data-testid="file-input"]', { name: 'bench.json', mimeType: 'application/json', buffer: Buffer.from(saveDrawing(doc)) });
     await page.waitForFunction(() => document.querySelector('.doc-title')?.textContent?.includes('bench chain'), undefined, { timeout: 30000 });
@@ -86,42 +78,61 @@ async function main() {
     await field.fill('7k');
     await field.press('Enter');
     await page.locator('.sheet').focus();
+    await page.waitForFunction(() => !document.querySelector('.ao-busy'), undefined, { timeout: 60000 });
 
     await page.evaluate(() => {
-      const w = window as unknown as { __bench: { t0: number; t1: number; t2: number; snap: string } };
+      const w = window as unknown as { __bench: Stamp };
       const snap = () => {
         const root = document.querySelector('[data-testid="analysis-overlay"]');
         if (!root) return '';
         return Array.from(root.querySelectorAll('.ao-badge, .ao-dot')).map((e) => (e as HTMLElement).innerText + '|' + (e.getAttribute('title') ?? '')).join('\n');
       };
-      w.__bench = { t0: 0, t1: 0, t2: 0, snap: snap() };
-      window.addEventListener('click', () => { w.__bench.t0 = performance.now(); w.__bench.t1 = 0; w.__bench.t2 = 0; w.__bench.snap = snap(); }, true);
+      w.__bench = { t0: 0, t1: 0, t2: 0, snap: snap(), measures: [] };
+      window.addEventListener('click', () => {
+        performance.clearMeasures();
+        w.__bench.t0 = performance.now(); w.__bench.t1 = 0; w.__bench.t2 = 0; w.__bench.snap = snap();
+      }, true);
       new MutationObserver(() => {
         const b = w.__bench;
         if (!b.t0 || b.t1) return;
         const s = snap();
         if (s && s !== b.snap) {
           b.t1 = performance.now();
-          requestAnimationFrame(() => { b.t2 = performance.now(); });
+          requestAnimationFrame(() => {
+            b.t2 = performance.now();
+            b.measures = performance.getEntriesByType('measure').filter((m) => m.name.startsWith('ps:')).map((m) => ({ name: m.name, start: m.startTime - b.t0, ms: m.duration }));
+          });
         }
       }).observe(document.body, { subtree: true, childList: true, characterData: true, attributes: true, attributeFilter: ['title'] });
     });
 
     const toOverlay: number[] = [], toFrame: number[] = [];
+    const split = new Map<string, number[]>();
     for (let i = 0; i < EDITS; i++) {
       await page.getByRole('button', { name: i % 2 === 0 ? 'Undo' : 'Redo', exact: true }).click();
-      await page.waitForFunction(() => (window as unknown as { __bench: { t2: number } }).__bench.t2 > 0, undefined, { timeout: 60000 });
-      const t = await page.evaluate(() => (window as unknown as { __bench: { t0: number; t1: number; t2: number } }).__bench);
+      try {
+        await page.waitForFunction(() => (window as unknown as { __bench: Stamp }).__bench.t2 > 0, undefined, { timeout: 60000 });
+      } catch (e) {
+        await page.screenshot({ path: artifactPath('bench-timeout.png') });
+        throw e;
+      }
+      const t = await page.evaluate(() => (window as unknown as { __bench: Stamp }).__bench);
       toOverlay.push(t.t1 - t.t0);
       toFrame.push(t.t2 - t.t0);
+      // per edit: sum of each measure's durations that started after the click
+      const sums = new Map<string, number>();
+      for (const m of t.measures) if (m.start >= 0) sums.set(m.name, (sums.get(m.name) ?? 0) + m.ms);
+      for (const [name, ms] of sums) split.set(name, [...(split.get(name) ?? []), ms]);
+      // the feedback stage must not overlap the next click's clock
+      await page.waitForFunction(() => !document.querySelector('.ao-busy'), undefined, { timeout: 60000 });
     }
-    const med = (v: number[]) => { const s = [...v].sort((a, b) => a - b); return s[Math.floor(s.length / 2)]; };
-    const fmt = (v: number) => v.toFixed(1);
     console.log(`edit → overlay DOM updated: median ${fmt(med(toOverlay))} ms (min ${fmt(Math.min(...toOverlay))}, max ${fmt(Math.max(...toOverlay))}) over ${EDITS} undo/redo clicks`);
     console.log(`edit → frame showing it:   median ${fmt(med(toFrame))} ms (min ${fmt(Math.min(...toFrame))}, max ${fmt(Math.max(...toFrame))}); ratio to one 60 Hz frame ${(med(toFrame) / (1000 / 60)).toFixed(1)}×`);
+    if (split.size === 0) console.log('(no ps: performance measures recorded by this build)');
+    for (const [name, v] of [...split].sort()) console.log(`  ${name.padEnd(24)} median ${fmt(med(v))} ms (min ${fmt(Math.min(...v))}, max ${fmt(Math.max(...v))}, ${v.length} edits)`);
   } finally {
     await browser.close();
-    await new Promise<void>((r) => server.httpServer.close(() => r()));
+    await served.close();
   }
 }
 

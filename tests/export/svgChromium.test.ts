@@ -1,9 +1,9 @@
 // The exported SVG rendered by headless Chromium: loaded as a standalone image file (an <img> only
 // shows a self-contained, well-formed SVG document) and inline, where the drawn parts must fall
-// inside the viewBox. Needs the Chromium binary (CHROMIUM_PATH or /usr/bin/chromium).
-import { existsSync } from 'node:fs';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { chromium, type Browser } from 'playwright-core';
+// inside the viewBox. Chromium comes from tests/browser/harness.ts (skipped with the install hint
+// where it is missing).
+import { afterAll, beforeAll, expect, it } from 'vitest';
+import type { Browser } from 'playwright-core';
 import { annotatedSvg } from '../../src/export/exportDrawing';
 import { bodeModel } from '../../src/plots/model/bodeModel';
 import { bodeInputFrom } from '../../src/plots/fromEngine';
@@ -11,14 +11,12 @@ import { toSvg } from '../../src/plots/toSvg';
 import { analyze } from '../../src/engine/index';
 import { documentToNetlist } from '../../src/schematic/toNetlist';
 import { exampleDrawing } from './fixtures';
+import { browserSuite, launchBrowser } from '../browser/harness';
 
-const CHROMIUM = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
-const haveChromium = existsSync(CHROMIUM);
-
-describe.skipIf(!haveChromium)('SVG export in headless Chromium', () => {
+browserSuite('SVG export in headless Chromium', () => {
   let browser: Browser;
   beforeAll(async () => {
-    browser = await chromium.launch({ executablePath: CHROMIUM, args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync'] });
+    ({ browser } = await launchBrowser());
   });
   afterAll(async () => { await browser?.close(); });
 

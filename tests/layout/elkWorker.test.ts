@@ -1,29 +1,26 @@
 // The browser path of the tidy: elkjs in a web worker (src/layout/elkWorker.ts), served by Vite's
 // dev server and run in headless Chromium; the tidied drawing must keep its netlist, as in node.
-import { existsSync } from 'node:fs';
-import { fileURLToPath } from 'node:url';
+// Chromium comes from tests/browser/harness.ts (skipped with the install hint where it is missing).
 import { join } from 'node:path';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, expect, it } from 'vitest';
 import type { Browser } from 'playwright-core';
 import type { ViteDevServer } from 'vite';
 import { documentToNetlist } from '../../src/schematic/toNetlist';
 import type { DrawingDocument } from '../../src/schematic/document';
 import { exampleDrawing } from '../export/fixtures';
+import { browserSuite, launchBrowser, ROOT } from '../browser/harness';
 
-const CHROMIUM = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
-const ROOT = fileURLToPath(new URL('../..', import.meta.url));
-
-describe.skipIf(!existsSync(CHROMIUM))('tidy with ELK in a web worker (headless Chromium)', () => {
+browserSuite('tidy with ELK in a web worker (headless Chromium)', () => {
   let server: ViteDevServer;
   let browser: Browser;
   let url = '';
   beforeAll(async () => {
+    // the dev server (not the shared build): the test imports the layout modules by source path
     const { createServer } = await import('vite');
     server = await createServer({ configFile: join(ROOT, 'src', 'vite.config.ts'), logLevel: 'error', server: { port: 0, host: '127.0.0.1', strictPort: false, hmr: false } });
     await server.listen();
     url = server.resolvedUrls!.local[0];
-    const { chromium } = await import('playwright-core');
-    browser = await chromium.launch({ executablePath: CHROMIUM, args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync'] });
+    ({ browser } = await launchBrowser());
   });
   afterAll(async () => { await browser?.close(); await server?.close(); });
 

@@ -3,7 +3,7 @@ import { afterEach, describe, expect, test, vi } from 'vitest';
 import { createLiveStore } from '../../src/live/store';
 import { createSameThreadRunner } from '../../src/worker/runner';
 import { createScheduler } from '../../src/worker/scheduler';
-import type { AnalysisRunner, RunMessage, RunRequest } from '../../src/worker/protocol';
+import type { AnalysisRunner, RunMessage, RunRequest, WorkerMessage } from '../../src/worker/protocol';
 import { runStage1 } from '../../src/worker/compute';
 import type { LiveState } from '../../src/live/types';
 import type { PartId } from '../../src/schematic/document';
@@ -93,8 +93,8 @@ describe('stale runs', () => {
     expect(zOut(store.getState())).toBeCloseTo(par(10000, 1 / GDS), 6);
   });
 
-  test('the scheduler skips a superseded request and stage 2 of a superseded run', () => {
-    const posted: RunMessage[] = [];
+  test('the scheduler skips a superseded request and the later stages of a superseded run', () => {
+    const posted: WorkerMessage[] = [];
     const queue: (() => void)[] = [];
     const sch = createScheduler((msg) => posted.push(msg), (fn) => queue.push(fn));
     const req = (runId: number, r1: string): RunRequest => ({ runId, netlist: netlistOf(r1), frequencyHz: 0, offSources: [], offLoops: [] });
@@ -103,8 +103,61 @@ describe('stale runs', () => {
     queue.shift()!(); // stage 1 of run 2
     sch.push(req(3, '22k')); // arrives between the stages of run 2
     while (queue.length) queue.shift()!();
-    const summary = posted.map((p) => `${p.runId}:${p.stage}`);
-    expect(summary).toEqual(['1:dropped', '2:1', '2:dropped', '3:1', '3:2']);
+    const summary = posted.map((p) => (p.stage === 'loopDetail' ? 'detail' : `${p.runId}:${p.stage}`));
+    expect(summary).toEqual(['1:dropped', '2:1', '2:dropped', '3:1', '3:sweep', '3:2']);
+  });
+
+  test('stage 1 is the overlay data; the sweep that follows gives each node |Z| over frequency', () => {
+    const posted: WorkerMessage[] = [];
+    const queue: (() => void)[] = [];
+    const sch = createScheduler((msg) => posted.push(msg), (fn) => queue.push(fn));
+    sch.push({ runId: 1, netlist: netlistOf('4.7k'), frequencyHz: 0, offSources: [], offLoops: [], feedback: false });
+    while (queue.length) queue.shift()!();
+    const s1 = posted.find((p) => p.stage === 1), sw = posted.find((p) => p.stage === 'sweep');
+    if (s1?.stage !== 1 || sw?.stage !== 'sweep') throw new Error('stage 1 and the sweep were expected');
+    expect(s1.result.impedanceSweep).toBeNull();
+    const k = sw.impedanceSweep!.nodes.indexOf('out');
+    expect(k).toBeGreaterThanOrEqual(0);
+    // at the lowest sweep frequency |Z(out)| is close to the DC value R1 ∥ ro (Gray & Meyer, R_D ∥ r_o)
+    const z0 = sw.impedanceSweep!.values[k][0]!;
+    expect(Math.hypot(z0.re, z0.im) / par(4700, 1 / GDS)).toBeCloseTo(1, 2);
+    // and it agrees with analyze() asked for the sweep itself (the one-call path)
+    const whole = runStage1({ runId: 1, netlist: netlistOf('4.7k'), frequencyHz: 0, offSources: [], offLoops: [] }).impedanceSweep!;
+    expect(sw.impedanceSweep!.hz).toEqual(whole.hz);
+    whole.values[k].forEach((z, i) => {
+      const got = sw.impedanceSweep!.values[k][i]!;
+      expect(Math.hypot(got.re - z!.re, got.im - z!.im) / Math.hypot(z!.re, z!.im)).toBeLessThan(1e-9);
+    });
+  });
+
+  test('loop-detail requests run after the stages of the current run, newest only', () => {
+    const posted: WorkerMessage[] = [];
+    const queue: (() => void)[] = [];
+    const sch = createScheduler((msg) => posted.push(msg), (fn) => queue.push(fn));
+    const netlist = netlistOf('4.7k');
+    const detail = (id: number) => ({ kind: 'loopDetail' as const, id, netlist, key: 'M1.gm', offSources: [], fMin: 1e3, fMax: 1e9, perDecade: 5, part: 'gain' as const });
+    sch.push({ runId: 1, netlist, frequencyHz: 0, offSources: [], offLoops: [] });
+    sch.push(detail(1));
+    sch.push(detail(2)); // supersedes 1 before it started
+    while (queue.length) queue.shift()!();
+    const summary = posted.map((p) => (p.stage === 'loopDetail' ? `detail:${p.detail.id}` : `${p.runId}:${p.stage}`));
+    expect(summary).toEqual(['1:1', '1:sweep', '1:2', 'detail:2']);
+    const d = posted.at(-1)!;
+    if (d.stage !== 'loopDetail') throw new Error('loop detail expected');
+    expect(d.detail.values.length).toBe(d.detail.hz.length);
+    expect(d.detail.hz.length).toBeGreaterThan(20);
+  });
+
+  test('the store keeps only the answer to its newest loop-detail ask, also with a runner without details', async () => {
+    const m = manualRunner();
+    const store = createLiveStore({ runner: m.runner });
+    const netlist = netlistOf('4.7k');
+    const ask = { netlist, key: 'M1.gm', offSources: [], fMin: 1e3, fMax: 1e9, perDecade: 5, part: 'gain' as const };
+    store.actions.askLoopDetail(ask);
+    const id = store.actions.askLoopDetail({ ...ask, key: 'M9.gm' });
+    const s = await until(store, (x) => x.loopDetail !== null);
+    expect(s.loopDetail!.id).toBe(id);
+    expect(s.loopDetail!.message).toMatch(/M9\.gm/); // the unknown source is named
   });
 });
 

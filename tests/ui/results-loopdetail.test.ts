@@ -1,8 +1,8 @@
-// The selected loop's detail for the plots (loopDetail.ts) on a one-node shunt loop with closed
+// The selected loop's detail for the plots (src/worker/loopDetail.ts) on a one-node shunt loop with closed
 // forms: a transconductor gm that senses node a and pulls current out of it, with R ∥ C to ground.
 import { describe, it, expect } from 'vitest';
 import type { Netlist } from '../../src/engine/index';
-import { computeLoopDetail } from '../../src/panels/results/loopDetail';
+import { computeLoopDetail } from '../../src/worker/loopDetail';
 
 const R = 10e3, C = 1e-12, GM = 1e-3;
 const netlist: Netlist = {
@@ -14,7 +14,7 @@ const netlist: Netlist = {
     { name: 'G1', kind: 'vccs', pins: { p: 'a', n: '0', cp: 'a', cn: '0' }, values: { gm: GM } },
   ],
 };
-const base = { id: 7, netlist, key: 'G1.gm', offSources: [], fMin: 1e3, fMax: 1e10, perDecade: 10 };
+const base = { kind: 'loopDetail' as const, id: 7, netlist, key: 'G1.gm', offSources: [], fMin: 1e3, fMax: 1e10, perDecade: 10 };
 
 describe('loop detail', () => {
   it('T(jω) of a shunt transconductor is gm·R/(1 + jωRC)', () => {

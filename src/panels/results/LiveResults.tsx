@@ -100,7 +100,8 @@ export function LiveResults({ state, actions, initialTab = 'poles' }: LiveResult
           {tab === 'plots' && (
             <PlotsPanel result={result} feedback={state.feedback} netlist={state.netlist} offSources={offSources}
               loop={selGroup ? { key: selGroup.key, label: selGroup.label } : selEntry ? { key: selEntry.key, label: selEntry.label } : null}
-              node={settings.selectedNet} onSelectNet={actions.selectNet} pinned={state.pinnedA?.result ?? null} feedbackPending={state.feedbackPending} />
+              node={settings.selectedNet} onSelectNet={actions.selectNet} pinned={state.pinnedA?.result ?? null} feedbackPending={state.feedbackPending}
+              loopDetail={state.loopDetail} askLoopDetail={actions.askLoopDetail} />
           )}
         </div>
       </>

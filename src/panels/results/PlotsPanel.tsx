@@ -8,6 +8,7 @@ import type { FeedbackResult } from '../../engine/feedback/index';
 import { BodePlot, ImpedancePlot, LoopGainPlot, SplanePlot, StepPlot } from '../../plots/index';
 import { downloadText } from '../../export/browserExport';
 import { useLoopDetail, type LoopDetailAsk } from './useLoopDetail';
+import type { LoopDetail } from '../../worker/loopDetail';
 import { bodeInput, impedanceInput, impedanceNode, loopGainInput, splaneInput, stepInput } from './plotInputs';
 
 export type PlotKind = 'bode' | 'loop' | 'impedance' | 'splane' | 'step';
@@ -30,13 +31,16 @@ export interface PlotsPanelProps {
   feedbackPending: boolean;
   width?: number;
   initial?: PlotKind;
+  /** The live store's newest loop-detail answer and its way to ask for one. */
+  loopDetail: LoopDetail | null;
+  askLoopDetail: (ask: LoopDetailAsk) => number;
 }
 
 function Missing({ text }: { text: string }) {
   return <p className="rp-empty" data-testid="plot-missing">{text}</p>;
 }
 
-export function PlotsPanel({ result, feedback, netlist, loop, offSources, node, onSelectNet, pinned, feedbackPending, width = 276, initial = 'bode' }: PlotsPanelProps) {
+export function PlotsPanel({ result, feedback, netlist, loop, offSources, node, onSelectNet, pinned, feedbackPending, width = 276, initial = 'bode', loopDetail, askLoopDetail }: PlotsPanelProps) {
   const [kind, setKind] = useState<PlotKind>(initial);
   const [large, setLarge] = useState(false);
   const range = result.conditions.sweep;
@@ -44,7 +48,7 @@ export function PlotsPanel({ result, feedback, netlist, loop, offSources, node, 
   const ask: LoopDetailAsk | null = useMemo(() => (needsLoop && loop && netlist && range
     ? { netlist, key: loop.key, offSources, fMin: range.fMin, fMax: range.fMax, perDecade: Math.min(range.perDecade, 20), part: kind === 'loop' ? 'gain' as const : 'locus' as const }
     : null), [needsLoop, loop, netlist, range, offSources, kind]);
-  const { detail, pending } = useLoopDetail(ask);
+  const { detail, pending } = useLoopDetail(ask, loopDetail, askLoopDetail);
 
   const view = (w: number, h: number) => {
     const onExport = (svg: string) => downloadText(`${kind}.svg`, 'image/svg+xml', svg);

@@ -4,7 +4,7 @@ import type { AnalysisResult, Netlist } from '../../engine/index';
 import type { FeedbackResult } from '../../engine/feedback/index';
 import type { BodeInput, ImpedanceInput, LoopGainInput, SplaneInput, StepInput } from '../../plots/index';
 import { bodeInputFrom, complexToCurve, stepInputFrom } from '../../plots/index';
-import type { LoopDetail } from './loopDetail';
+import type { LoopDetail } from '../../worker/loopDetail';
 import { compareResults, migrationsOf } from './compareModel';
 
 export function transferLabel(r: AnalysisResult): string {

@@ -1,14 +1,15 @@
 // What the plots need of the selected loop beyond the feedback result: its key source's return
-// ratio T(jω) over the sweep (Bode 1945) and its root locus (engine/feedback/locus.ts). Pure; runs
-// in loopDetail.worker.ts, or on the same thread where there is no Worker. Never throws: a failure
-// comes back as a message naming the loop.
-import { buildMna, logGrid } from '../../engine/index';
-import type { Netlist } from '../../engine/index';
-import { returnRatios, rootLocus } from '../../engine/feedback/index';
-import type { RootLocus } from '../../engine/feedback/index';
-import type { Cx } from '../../engine/types';
+// ratio T(jω) over the sweep (Bode 1945) and its root locus (engine/feedback/locus.ts). Pure; one
+// more request kind of the analysis worker (protocol.ts, scheduler.ts), or on the same thread
+// where there is no Worker. Never throws: a failure comes back as a message naming the loop.
+import { buildMna, logGrid } from '../engine/index';
+import type { Netlist } from '../engine/index';
+import { returnRatios, rootLocus } from '../engine/feedback/index';
+import type { RootLocus } from '../engine/feedback/index';
+import type { Cx } from '../engine/types';
 
 export interface LoopDetailRequest {
+  kind: 'loopDetail';
   /** Request number: answers to older requests are dropped by the receiver. */
   id: number;
   netlist: Netlist;
