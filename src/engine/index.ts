@@ -6,19 +6,18 @@ import type { EngineIssue, MnaSystem, Netlist, OutputSpec } from './types';
 import { validateNetlist } from './netlist';
 import { assembleMna, expandNetlist } from './mna';
 import { checkStructure } from './structure';
-import { factorDc } from './analyses/dc';
-import { computePoles, type Pole } from './analyses/poles';
+import type { Pole } from './analyses/poles';
+import { computePoles } from './analyses/poles';
 import { computeZeros, type Zero } from './analyses/zeros';
-import { dcTransfer, transferEvaluator } from './analyses/transfer';
-import { shiftedReduction } from './analyses/hessenberg';
-import { findBandwidth, findUnityGain, logGrid, sweepTransfer, type Sweep } from './analyses/frequency';
-import { dcImpedances, impedancesAtHz } from './analyses/impedance';
-export type { TransferEvaluator } from './analyses/transfer';
-import { nodeTimeConstants, openCircuitTimeConstants, type OctcResult } from './analyses/octc';
-import { poleParticipation, type PoleParticipation } from './analyses/participation';
-import { poleVectors } from './analyses/modal';
+import { transferEvaluator } from './analyses/transfer';
+import { impedancesAtHz } from './analyses/impedance';
 import { impedanceSweep, type ImpedanceSweep } from './analyses/impedance-sweep';
-import { chooseSweep, nodeRows, resolveSwitches, sanitize, degenerateDcIssue, gainUnitOf, type GainUnit, type NodeRow, type SweepRange } from './analyses/report';
+import type { Sweep } from './analyses/frequency';
+import type { OctcResult } from './analyses/octc';
+import type { PoleParticipation } from './analyses/participation';
+import { resolveSwitches, sanitize, type GainUnit, type NodeRow, type SweepRange } from './analyses/report';
+import { completeStage, hasError, overlayStage, structuredCopy, type OverlayStage } from './stages';
+export type { TransferEvaluator } from './analyses/transfer';
 
 export type * from './types';
 export type { Pole, PoleResult } from './analyses/poles';
@@ -91,30 +90,44 @@ export interface AnalysisResult {
   impedanceSweep: ImpedanceSweep | null;
   /** Why a figure is null, keyed by the result field ("dcGain", "bandwidthHz", "zeros", ...). */
   reasons: Record<string, string>;
+  /** 'overlay': the first part of analyzeStaged (zeros, sweep, OCTC, participation still to come). */
+  stage: 'overlay' | 'complete';
 }
 
-function emptyResult(issues: EngineIssue[], conditions: AnalysisConditions): AnalysisResult {
+export function emptyResult(issues: EngineIssue[], conditions: AnalysisConditions): AnalysisResult {
   return {
     ok: false, caution: SMALL_SIGNAL_CAUTION, conditions, issues: [...issues], unknowns: { nodes: 0, branches: 0 },
     poles: [], poleInfo: { infiniteCount: 0, originCount: 0, status: 'not-run' }, zeros: [], zeroInfo: { infiniteCount: 0, status: 'not-run' },
-    dcGain: null, gainUnit: null, bandwidthHz: null, unityGainHz: null, phaseAtUnityDeg: null, sweep: null, nodes: [], octc: null, participation: [], impedanceSweep: null, reasons: {},
+    dcGain: null, gainUnit: null, bandwidthHz: null, unityGainHz: null, phaseAtUnityDeg: null, sweep: null, nodes: [], octc: null, participation: [], impedanceSweep: null, reasons: {}, stage: 'complete',
   };
 }
 
-const hasError = (issues: EngineIssue[]) => issues.some((i) => i.severity === 'error');
 
 export function analyze(netlist: Netlist, opts: AnalyzeOptions = {}): AnalysisResult {
+  const prepared = prepare(netlist, opts);
+  if ('result' in prepared) return prepared.result;
+  try {
+    return runAnalyses(prepared.sys, prepared.issues, prepared.conditions, opts);
+  } catch (e) {
+    return emptyResult([...prepared.issues, internal('the analyses', e)], prepared.conditions);
+  }
+}
+
+/** Validation, expansion, switches and the structure check; the assembled system or the result
+ *  that reports why there is none. */
+function prepare(netlist: Netlist, opts: AnalyzeOptions):
+  { result: AnalysisResult } | { sys: MnaSystem; issues: EngineIssue[]; conditions: AnalysisConditions } {
   const effective = { ...netlist, input: opts.input ?? netlist?.input, output: opts.output ?? netlist?.output } as Netlist;
   const conditions: AnalysisConditions = {
     input: effective.input ?? null, output: effective.output ?? null, off: [], scaled: {}, frequencyHz: null, sweep: null,
   };
   const v = validateNetlist(effective);
-  if (!v.netlist || hasError(v.issues)) return emptyResult(v.issues, conditions);
+  if (!v.netlist || hasError(v.issues)) return { result: emptyResult(v.issues, conditions) };
   let x;
   try {
     x = expandNetlist(v.netlist);
   } catch (e) {
-    return emptyResult([...v.issues, internal('expanding the netlist', e)], conditions);
+    return { result: emptyResult([...v.issues, internal('expanding the netlist', e)], conditions) };
   }
   const issues = [...x.issues];
   const sw = resolveSwitches(x.elements, opts.scale ?? {}, opts.off ?? []);
@@ -122,13 +135,8 @@ export function analyze(netlist: Netlist, opts: AnalyzeOptions = {}): AnalysisRe
   conditions.off = sw.off;
   conditions.scaled = sw.scaled;
   if (!hasError(issues)) issues.push(...checkStructure(x));
-  if (hasError(issues)) return emptyResult(issues, conditions);
-  const sys = assembleMna(x, { scale: sw.scale });
-  try {
-    return runAnalyses(sys, issues, conditions, opts);
-  } catch (e) {
-    return emptyResult([...issues, internal('the analyses', e)], conditions);
-  }
+  if (hasError(issues)) return { result: emptyResult(issues, conditions) };
+  return { sys: assembleMna(x, { scale: sw.scale }), issues, conditions };
 }
 
 function internal(stage: string, e: unknown): EngineIssue {
@@ -138,72 +146,41 @@ function internal(stage: string, e: unknown): EngineIssue {
 
 /** All analyses on an assembled system (exported for callers that assemble themselves). */
 export function runAnalyses(sys: MnaSystem, issues: EngineIssue[], conditions: AnalysisConditions, opts: AnalyzeOptions = {}): AnalysisResult {
-  const res = emptyResult(issues, conditions);
-  res.unknowns = { nodes: sys.nodeCount, branches: sys.n - sys.nodeCount };
-  const reasons = res.reasons;
-  const dc = factorDc(sys);
-  if (dc.status === 'degenerate') res.issues.push(degenerateDcIssue(sys, dc));
-  const poles = computePoles(sys, dc, { refine: opts.refine });
-  res.poles = poles.poles;
-  res.poleInfo = { infiniteCount: poles.infiniteCount, originCount: poles.originCount, status: poles.status };
-  if (poles.reason) reasons.poles = poles.reason;
+  return completeStage(overlayStage(sys, emptyResult(issues, conditions), opts));
+}
 
-  const zeros = computeZeros(sys, poles.poles, { refine: opts.refine });
-  res.zeros = zeros.zeros;
-  res.zeroInfo = { infiniteCount: zeros.infiniteCount, status: zeros.status };
-  if (zeros.reason) reasons.zeros = zeros.reason;
+/** analyze() in two steps, for a live view: `first` holds what the canvas paints (poles, DC node
+ *  impedances, node capacitance, τ and node poles, and the node impedance at `frequencyHz` when one
+ *  is given); `complete()` adds zeros, the transfer sweep, bandwidth, unity gain, the node
+ *  impedance column at the default frequency, OCTC, participation (and the impedance sweep) on
+ *  the same factorisations, and returns the same result analyze() would. */
+export interface StagedAnalysis {
+  first: AnalysisResult;
+  complete(): AnalysisResult;
+}
 
-  const dcT = dcTransfer(sys, dc);
-  res.dcGain = dcT.value;
-  res.gainUnit = gainUnitOf(sys);
-  if (dcT.reason) reasons.dcGain = dcT.reason;
-
-  const range = chooseSweep(opts.sweep, poles.poles, zeros.zeros);
-  conditions.sweep = range;
-  // H ≡ 0 (found by the zeros' probes): what the sweep would show is roundoff, not a response.
-  const identicallyZero = zeros.status === 'identically-zero';
-  if (identicallyZero) {
-    res.dcGain = 0;
-    delete reasons.dcGain;
-    reasons.sweep = reasons.bandwidthHz = reasons.unityGainHz = 'the output does not respond to the input (H(s) ≡ 0)';
+export function analyzeStaged(netlist: Netlist, opts: AnalyzeOptions = {}): StagedAnalysis {
+  const prepared = prepare(netlist, opts);
+  if ('result' in prepared) return { first: prepared.result, complete: () => prepared.result };
+  let stage: OverlayStage;
+  try {
+    stage = overlayStage(prepared.sys, emptyResult(prepared.issues, prepared.conditions), opts);
+  } catch (e) {
+    const r = emptyResult([...prepared.issues, internal('the analyses', e)], prepared.conditions);
+    return { first: r, complete: () => r };
   }
-  const transferDefined = dcT.status !== 'no-input' && dcT.status !== 'no-output' && !identicallyZero;
-  // One shifted Hessenberg reduction serves the sweep and the pole vectors.
-  const reduction = shiftedReduction(sys.G, sys.C, sys.n);
-  if (transferDefined) {
-    const ev = transferEvaluator(sys, [range.fMin, range.fMax], reduction);
-    const sweep = sweepTransfer(ev, logGrid(range.fMin, range.fMax, range.perDecade));
-    res.sweep = sweep;
-    const bw = findBandwidth(ev, sweep, dcT.value);
-    res.bandwidthHz = bw.hz;
-    if (bw.reason) reasons.bandwidthHz = bw.reason;
-    const ug = findUnityGain(ev, sweep);
-    res.unityGainHz = ug.hz;
-    res.phaseAtUnityDeg = ug.phaseDeg;
-    if (ug.reason) reasons.unityGainHz = ug.reason;
-  } else if (!identicallyZero) {
-    reasons.sweep = dcT.reason ?? 'no transfer chosen';
-  }
-
-  const slowestPole = poles.poles.find((p) => p.kind !== 'origin');
-  let asked = opts.frequencyHz;
-  if (asked !== undefined && !(typeof asked === 'number' && Number.isFinite(asked) && asked >= 0)) {
-    res.issues.push({ severity: 'warning', code: 'bad-value', field: 'frequencyHz',
-      message: `frequencyHz: ${String(asked)} is not a frequency ≥ 0 in Hz; the default frequency is used` });
-    asked = undefined;
-  }
-  const fz = asked ?? res.bandwidthHz ?? res.unityGainHz ?? slowestPole?.hz ?? 1e6;
-  conditions.frequencyHz = fz;
-  const zDc = dcImpedances(sys, dc);
-  const zAt = impedancesAtHz(sys, fz, dc);
-  if (zAt.reason) reasons.nodeImpedance = zAt.reason;
-  res.nodes = nodeRows(sys, zDc, zAt.values, nodeTimeConstants(sys, zDc));
-  res.octc = openCircuitTimeConstants(sys, dc);
-  const vectors = poleVectors(sys, poles.poles, reduction);
-  res.participation = poleParticipation(sys, poles.poles, { vectors });
-  if (opts.impedanceSweep) {
-    res.impedanceSweep = impedanceSweep(sys, logGrid(range.fMin, range.fMax, range.perDecade), { poles: poles.poles, reduction, vectors });
-  }
-  res.ok = !hasError(res.issues);
-  return sanitize(res);
+  const first = sanitize(structuredCopy(stage.result));
+  let full: AnalysisResult | null = null;
+  return {
+    first,
+    complete() {
+      if (full) return full;
+      try {
+        full = completeStage(stage);
+      } catch (e) {
+        full = emptyResult([...prepared.issues, internal('the analyses', e)], prepared.conditions);
+      }
+      return full;
+    },
+  };
 }
