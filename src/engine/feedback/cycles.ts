@@ -64,8 +64,9 @@ export interface CycleEnumeration {
 
 /** Elementary cycles by Johnson's algorithm (Johnson 1975): for each start s, search the strong
  *  component of s in the subgraph of vertices ≥ s with the blocked-set bookkeeping that makes the
- *  search time linear per cycle found. Stops after `maxCycles`. Neighbour order is respected, so a
- *  caller that sorts neighbours by coupling size finds the large cycles first. */
+ *  search time linear per cycle found. Stops after `maxCycles`. Neighbour order is respected (except
+ *  that the edge closing the cycle comes first), so a caller that sorts neighbours by coupling size
+ *  finds the large cycles first. */
 export function elementaryCycles(count: number, adj: number[][], maxCycles = 10000): CycleEnumeration {
   const cycles: number[][] = [];
   const blocked = new Uint8Array(count);
@@ -86,7 +87,14 @@ export function elementaryCycles(count: number, adj: number[][], maxCycles = 100
 
   for (let s = 0; s < count && !truncated; s++) {
     // subgraph on vertices ≥ s, restricted to the strong component that holds s
+    // the edge back to s is tried first at every vertex: a cycle is reported as soon as the path can
+    // close, so with a budget the strongest-first path yields its own cycle (e.g. a loop through a
+    // whole chain) before the many cycles that wander on from its far end
     const sub = adj.map((list, v) => (v < s ? [] : list.filter((w) => w >= s)));
+    for (const list of sub) {
+      const at = list.indexOf(s);
+      if (at > 0) { list.splice(at, 1); list.unshift(s); }
+    }
     const { of } = stronglyConnected(count, sub);
     const inComp = (v: number) => v >= s && of[v] === of[s];
     if (!sub[s].some((w) => inComp(w))) continue;

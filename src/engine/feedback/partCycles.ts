@@ -119,26 +119,36 @@ export function findPartCycles(
     return Math.pow(1 + b, m) - 1;
   };
   const evaluator = new CycleEvaluator(g, pg, cl);
-  const multi: PartCycle[] = [];
-  for (const cyc of found.cycles) {
-    if (!(bound(cyc) > threshold)) continue;
+  const evaluate = (cyc: number[]): PartCycle | null => {
+    if (!(bound(cyc) > threshold)) return null;
     const gains = evaluator.gains(cyc);
-    if (!gains) continue;
+    if (!gains) return null;
     const mags = fz.map((_, fi) => Math.hypot(gains[2 * fi], gains[2 * fi + 1]));
     const peakIdx = peakOf(mags);
-    if (!(mags[peakIdx] > threshold)) continue;
+    if (!(mags[peakIdx] > threshold)) return null;
     const { sources, pairs } = cyclePath(g, pg, cyc);
-    multi.push({ parts: cyc, sources, pairs, mags, dc: { re: gains[0], im: gains[1] }, peakIdx, folded: [] });
+    return { parts: cyc, sources, pairs, mags, dc: { re: gains[0], im: gains[1] }, peakIdx, folded: [] };
+  };
+  const multi: PartCycle[] = [];
+  for (const cyc of found.cycles) {
+    const c = evaluate(cyc);
+    if (c) multi.push(c);
   }
 
-  // detours: shortest first, so the loops a longer cycle is made of are decided before it
+  // detours: shortest first, so the loops a longer cycle is made of are decided before it. A cycle
+  // whose detours (short runs of parts off a direct part edge, each part of the run closing a listed
+  // loop with the run's ends) are taken out is the loop it varies; that loop is listed (evaluated
+  // here when the enumeration did not reach it) and the cycle is folded into it.
   multi.sort((a, b) => a.parts.length - b.parts.length || b.mags[b.peakIdx] - a.mags[a.peakIdx]);
   const keptMulti: PartCycle[] = [];
   for (const c of multi) {
-    const set = new Set(c.parts);
-    const base = keptMulti.find((k) => k.parts.length < c.parts.length && k.parts.every((p) => set.has(p)) &&
-      c.parts.filter((p) => !k.parts.includes(p)).every((q) =>
-        keptMulti.some((o) => o !== k && o.parts.includes(q) && o.parts.every((p) => set.has(p)))));
+    const core = withoutDetours(c.parts, keptMulti, (a, b) => pg.peak[a * P + b]);
+    if (core.length === c.parts.length) { keptMulti.push(c); continue; }
+    let base = keptMulti.find((k) => sameCycle(k.parts, core)) ?? null;
+    if (!base) {
+      base = evaluate(core);
+      if (base) keptMulti.push(base);
+    }
     if (base) base.folded.push(c.parts);
     else keptMulti.push(c);
   }
@@ -218,6 +228,42 @@ function blockNorm(g: CouplingGraph, fi: number, from: number[], to: number[]): 
   let s = 0;
   for (const i of from) for (const j of to) { const r = g.re[fi][i * N + j], m = g.im[fi][i * N + j]; s += r * r + m * m; }
   return Math.sqrt(s);
+}
+
+/** Longest run of parts taken out as one detour. */
+const DETOUR_LEN = SHORT_LEN;
+
+/** A direct edge p → q stands for the path p → S → q when its peak coupling is at least this part of
+ *  the path's (product of the peaks): a parallel path, not the way the signal really goes. */
+const PARALLEL_RATIO = 0.1;
+
+/** The cycle with its detours taken out, rotated to start at its smallest part (as the cycle
+ *  enumerations give them). A run S between parts p and q is a detour when p → q is itself a
+ *  coupling about as strong as the path through S (PARALLEL_RATIO), and every part of S closes a
+ *  listed loop within S ∪ {p, q} that passes p or q (a booster between a cascode's input device and
+ *  the cascode: the booster loop is listed on its own). `peak(a, b)`: peak coupling part a → b. */
+function withoutDetours(parts: number[], kept: PartCycle[], peak: (a: number, b: number) => number): number[] {
+  let cur = parts.slice();
+  for (let changed = true; changed && cur.length > 2;) {
+    changed = false;
+    const L = cur.length;
+    for (let i = 0; i < L && !changed; i++) {
+      for (let len = 1; len <= Math.min(DETOUR_LEN, L - 2) && !changed; len++) {
+        const p = cur[i], q = cur[(i + len + 1) % L];
+        const run = Array.from({ length: len }, (_, k) => cur[(i + 1 + k) % L]);
+        let path = peak(run[len - 1], q);
+        for (let k = 0; k < len; k++) path *= peak(k === 0 ? p : run[k - 1], run[k]);
+        const direct = peak(p, q);
+        if (!(direct > EDGE_FLOOR && direct >= PARALLEL_RATIO * path)) continue;
+        const local = (o: PartCycle) => (o.parts.includes(p) || o.parts.includes(q)) && o.parts.every((x) => x === p || x === q || run.includes(x));
+        if (!run.every((x) => kept.some((o) => o.parts.includes(x) && local(o)))) continue;
+        cur = cur.filter((x) => !run.includes(x));
+        changed = true;
+      }
+    }
+  }
+  const start = cur.indexOf(Math.min(...cur));
+  return [...cur.slice(start), ...cur.slice(0, start)];
 }
 
 function sameCycle(a: number[], b: number[]): boolean {

@@ -77,7 +77,7 @@ export function partClosures(g: CouplingGraph, pg: PartGraph): PartClosures {
     const dRow: Cx[] = [];
     const hRow: (CMat | null)[] = [];
     for (const list of pg.sourcesOf) {
-      const r = cmatDetInv(cmatIdentityMinus(couplingBlock(g, fi, list, list)), true);
+      const r = list.length === 1 ? closeOne(g, fi, list[0]) : cmatDetInv(cmatIdentityMinus(couplingBlock(g, fi, list, list)), true);
       dRow.push(r.det);
       hRow.push(r.inv);
     }
@@ -85,6 +85,17 @@ export function partClosures(g: CouplingGraph, pg: PartGraph): PartClosures {
     h.push(hRow);
   }
   return { det, h };
+}
+
+/** cmatDetInv(I − [d_ii]) for a one-source part without the general elimination: the same
+ *  operations on the 1 × 1 case (det = pivot, inverse = 1/pivot). */
+function closeOne(g: CouplingGraph, fi: number, i: number): { det: Cx; inv: CMat | null } {
+  const N = g.stamps.length;
+  const pr = 1 - g.re[fi][i * N + i], pi = -g.im[fi][i * N + i];
+  if (Math.hypot(pr, pi) === 0) return { det: { re: 0, im: 0 }, inv: null };
+  const q = pr * pr + pi * pi;
+  const inv: CMat = { rows: 1, cols: 1, re: new Float64Array([(1 * pr + 0 * pi) / q]), im: new Float64Array([(0 * pr - 1 * pi) / q]) };
+  return { det: { re: 1 * pr - 0 * pi, im: 1 * pi + 0 * pr }, inv };
 }
 
 /** Local loop gain of part p at frequency index fi: det(I − D_pp) − 1. */
@@ -150,9 +161,22 @@ export class CycleEvaluator {
     for (let fi = 0; fi < this.F && ok; fi++) {
       const hb = this.cl.h[fi][b];
       if (!hb) { ok = false; break; }
-      const m = cmatMul(couplingBlock(this.g, fi, this.pg.sourcesOf[a], this.pg.sourcesOf[b]), hb);
+      // D_ab·H_b straight into the buffer (same sums, in the same order, as cmatMul)
+      const from = this.pg.sourcesOf[a], to = this.pg.sourcesOf[b];
+      const dr = this.g.re[fi], di = this.g.im[fi];
+      const N = this.g.stamps.length;
       const base = fi * ra * cb * 2;
-      for (let k = 0; k < ra * cb; k++) { out[base + 2 * k] = m.re[k]; out[base + 2 * k + 1] = m.im[k]; }
+      for (let i = 0; i < ra; i++) {
+        for (let k = 0; k < cb; k++) {
+          const ar = dr[from[i] * N + to[k]], ai = di[from[i] * N + to[k]];
+          if (ar === 0 && ai === 0) continue;
+          for (let j = 0; j < cb; j++) {
+            const br = hb.re[k * cb + j], bi = hb.im[k * cb + j];
+            out[base + 2 * (i * cb + j)] += ar * br - ai * bi;
+            out[base + 2 * (i * cb + j) + 1] += ar * bi + ai * br;
+          }
+        }
+      }
     }
     const v = ok ? out : null;
     this.steps.set(key, v);
