@@ -2,7 +2,7 @@
 // DC/sweep transfer, node impedances, OCTC, participation) on invented n-unknown amplifier chains,
 // plus the pieces on their own for the 60-unknown case (poles, zeros, node impedances at 100
 // frequencies). Prints times and ratios; asserts nothing (no test may assert wall-clock time).
-import { analyze, buildMna, logGrid, type Netlist } from '../../src/engine/index';
+import { analyze, analyzeStaged, buildMna, logGrid, type Netlist } from '../../src/engine/index';
 import { computePoles } from '../../src/engine/analyses/poles';
 import { computeZeros } from '../../src/engine/analyses/zeros';
 import { dcImpedances, impedancesAtHz } from '../../src/engine/analyses/impedance';
@@ -91,6 +91,8 @@ export function runAnalysisBench(print: (s: string) => void = console.log): Anal
   const impFast = time(() => impedanceSweep(sys, grid, { poles: p }));
   print(`60 unknowns: poles ${poles.toFixed(2)} ms, zeros ${zeros.toFixed(2)} ms, all node impedances at ${grid.length} frequencies: one LU per f ${imp.toFixed(2)} ms, impedanceSweep (${sweepZ.method}) ${impFast.toFixed(2)} ms`);
   print(`60 unknowns: (poles + zeros + impedanceSweep at 100 f) / 16 ms budget = ${((poles + zeros + impFast) / 16).toFixed(2)}; full analyze / 16 ms = ${(full / 16).toFixed(2)}`);
+  const first = time(() => analyzeStaged(net60).first);
+  print(`60 unknowns: analyzeStaged first part (what the canvas paints) ${first.toFixed(2)} ms (/16 ms = ${(first / 16).toFixed(2)})`);
   return rows;
 }
 
