@@ -191,41 +191,50 @@ function complexRows(f: ComplexLU): FactorRows {
   return (f.rows ??= factorRows(f.n, (k) => f.re[k] !== 0 || f.im[k] !== 0));
 }
 
-/** Solve (LU)·x = b for a complex right-hand side; returns [xr, xi]. */
-export function solveComplex(f: ComplexLU, br: Float64Array, bi: Float64Array): [Float64Array, Float64Array] {
-  const { n, re, im, perm } = f;
-  const { lStart, lIdx, uStart, uIdx } = complexRows(f);
-  const xr = new Float64Array(n);
-  const xi = new Float64Array(n);
-  for (let i = 0; i < n; i++) { xr[i] = br[perm[i]]; xi[i] = bi[perm[i]]; }
-  for (let i = 0; i < n; i++) {
-    let sr = xr[i];
-    let si = xi[i];
+/** In place y ← L⁻¹y (unit lower factor) over rows first..n−1; entries above `first` are taken
+ *  as zero (a right-hand side that starts at permuted row `first`). */
+export function forwardComplex(f: ComplexLU, xr: Float64Array, xi: Float64Array, first = 0): void {
+  const { n, re, im } = f;
+  const { lStart, lIdx } = complexRows(f);
+  for (let i = first + 1; i < n; i++) {
+    let sr = xr[i], si = xi[i];
     for (let t = lStart[i]; t < lStart[i + 1]; t++) {
       const j = lIdx[t];
-      const lr = re[i * n + j];
-      const li = im[i * n + j];
+      if (j < first) continue;
+      const lr = re[i * n + j], li = im[i * n + j];
       sr -= lr * xr[j] - li * xi[j];
       si -= lr * xi[j] + li * xr[j];
     }
     xr[i] = sr; xi[i] = si;
   }
-  for (let i = n - 1; i >= 0; i--) {
-    let sr = xr[i];
-    let si = xi[i];
+}
+
+/** In place x ← U⁻¹x for rows n−1 down to `last` (rows above `last` are left as they are). */
+export function backwardComplex(f: ComplexLU, xr: Float64Array, xi: Float64Array, last = 0): void {
+  const { n, re, im } = f;
+  const { uStart, uIdx } = complexRows(f);
+  for (let i = n - 1; i >= last; i--) {
+    let sr = xr[i], si = xi[i];
     for (let t = uStart[i]; t < uStart[i + 1]; t++) {
       const j = uIdx[t];
-      const ur = re[i * n + j];
-      const ui = im[i * n + j];
+      const ur = re[i * n + j], ui = im[i * n + j];
       sr -= ur * xr[j] - ui * xi[j];
       si -= ur * xi[j] + ui * xr[j];
     }
-    const dr = re[i * n + i];
-    const di = im[i * n + i];
-    const d = dr * dr + di * di;
-    xr[i] = (sr * dr + si * di) / d;
-    xi[i] = (si * dr - sr * di) / d;
+    const ar = re[i * n + i], ai = im[i * n + i], d = ar * ar + ai * ai;
+    xr[i] = (sr * ar + si * ai) / d;
+    xi[i] = (si * ar - sr * ai) / d;
   }
+}
+
+/** Solve (LU)·x = b for a complex right-hand side; returns [xr, xi]. */
+export function solveComplex(f: ComplexLU, br: Float64Array, bi: Float64Array): [Float64Array, Float64Array] {
+  const { n, perm } = f;
+  const xr = new Float64Array(n);
+  const xi = new Float64Array(n);
+  for (let i = 0; i < n; i++) { xr[i] = br[perm[i]]; xi[i] = bi[perm[i]]; }
+  forwardComplex(f, xr, xi);
+  backwardComplex(f, xr, xi);
   return [xr, xi];
 }
 
@@ -233,39 +242,16 @@ export function solveComplex(f: ComplexLU, br: Float64Array, bi: Float64Array): 
  *  starts the forward pass at e_k's permuted row and stops the backward pass at row k (only x_k
  *  is kept). Returns [re, im]. */
 export function complexInverseDiagonal(f: ComplexLU, count: number): [Float64Array, Float64Array] {
-  const { n, re, im, perm } = f;
-  const { lStart, lIdx, uStart, uIdx } = complexRows(f);
+  const { n, perm } = f;
   const at = new Int32Array(n);
   for (let i = 0; i < n; i++) at[perm[i]] = i;
   const xr = new Float64Array(n), xi = new Float64Array(n);
   const dr = new Float64Array(count), di = new Float64Array(count);
   for (let k = 0; k < count; k++) {
-    const r0 = at[k];
     xr.fill(0); xi.fill(0);
-    xr[r0] = 1;
-    for (let i = r0 + 1; i < n; i++) {
-      let sr = 0, si = 0;
-      for (let t = lStart[i]; t < lStart[i + 1]; t++) {
-        const j = lIdx[t];
-        if (j < r0) continue;
-        const lr = re[i * n + j], li = im[i * n + j];
-        sr -= lr * xr[j] - li * xi[j];
-        si -= lr * xi[j] + li * xr[j];
-      }
-      xr[i] = sr; xi[i] = si;
-    }
-    for (let i = n - 1; i >= k; i--) {
-      let sr = xr[i], si = xi[i];
-      for (let t = uStart[i]; t < uStart[i + 1]; t++) {
-        const j = uIdx[t];
-        const ur = re[i * n + j], ui = im[i * n + j];
-        sr -= ur * xr[j] - ui * xi[j];
-        si -= ur * xi[j] + ui * xr[j];
-      }
-      const ar = re[i * n + i], ai = im[i * n + i], d = ar * ar + ai * ai;
-      xr[i] = (sr * ar + si * ai) / d;
-      xi[i] = (si * ar - sr * ai) / d;
-    }
+    xr[at[k]] = 1;
+    forwardComplex(f, xr, xi, at[k]);
+    backwardComplex(f, xr, xi, k);
     dr[k] = xr[k]; di[k] = xi[k];
   }
   return [dr, di];
