@@ -21,6 +21,7 @@ import { useBrowserHost, type Banner } from './panels/browserHost';
 import type { LiveStore } from './live/types';
 import { AnalysisProvider } from './live/useAnalysis';
 import { useEditorAnalysis } from './live/useEditorAnalysis';
+import { perfMeasure, perfNow } from './live/perfMarks';
 import { AnalysisWireLayer } from './canvas/AnalysisWireLayer';
 import { AnalysisOverlay } from './canvas/AnalysisOverlay';
 import { AnalysisHud } from './canvas/AnalysisHud';
@@ -66,7 +67,13 @@ export function App({ editor, examples = [], storage = typeof localStorage === '
   const dispatch = useCallback((ev: EditorEvent) => editor.dispatch(ev), [editor]);
   const host = useBrowserHost({ editor, storage, examples, setBanner, onSaved: setSavedDoc, elk });
 
-  const analysis = useMemo(() => documentToNetlist(doc), [doc]);
+  // The drawing checks of this revision; the live store converts the same revision (cached).
+  const analysis = useMemo(() => {
+    const t0 = perfNow();
+    const d = documentToNetlist(doc);
+    perfMeasure('netlist', t0);
+    return d;
+  }, [doc]);
 
   // Exports read the live state at click time: the SVG is drawn from the overlay's annotations.
   const liveRef = useRef(live);

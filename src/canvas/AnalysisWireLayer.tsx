@@ -1,9 +1,9 @@
 // Konva layer of the live analysis: wires coloured per net (annotate() colours), a halo on nets
 // lit by a hovered pole or the selected net, the selected loop's path with direction arrows, and
 // a ring on the slowest node. Drawn above the parts layer; it never takes pointer input.
-import { memo } from 'react';
+import { memo, useMemo } from 'react';
 import { Arrow, Circle, Group, Layer, Line } from 'react-konva';
-import type { DrawingDocument } from '../schematic/document';
+import type { DrawingDocument, WireRecord } from '../schematic/document';
 import type { SchematicAnnotations } from '../export/annotations';
 import { INK } from './theme';
 
@@ -22,23 +22,32 @@ interface Props {
   scale: number;
 }
 
+// One coloured wire: memoised on the wire record (immutable) and its colour, so a new result
+// changes only the strokes of the nets whose colour moved, and a result with the same colours
+// (the sweep or the feedback stage arriving) redraws nothing.
+const MarkedWire = memo(function MarkedWire({ wire, color }: { wire: WireRecord; color: string }) {
+  const points = useMemo(() => wire.points.flatMap((p) => [p.x, p.y]), [wire]);
+  return <Line points={points} stroke={color} strokeWidth={OVERLAY_WIRE_WIDTH} lineCap="round" lineJoin="round" perfectDrawEnabled={false} listening={false} />;
+});
+
+const LitWire = memo(function LitWire({ wire, k }: { wire: WireRecord; k: number }) {
+  const points = useMemo(() => wire.points.flatMap((p) => [p.x, p.y]), [wire]);
+  return (
+    <Line points={points} stroke={LIT_COLOR} opacity={0.45} strokeWidth={10 * k + OVERLAY_WIRE_WIDTH}
+      lineCap="round" lineJoin="round" perfectDrawEnabled={false} listening={false} />
+  );
+});
+
 function AnalysisWireLayerView({ doc, ann, netOfWire, lit, scale }: Props) {
   if (!ann) return null;
   const k = 1 / Math.max(scale, 0.3);
   const wires = Object.values(doc.wires);
   return (
     <Layer listening={false}>
-      {lit.size > 0 && wires.filter((w) => lit.has(netOfWire.get(w.id) ?? '')).map((w) => (
-        <Line key={`lit:${w.id}`} points={w.points.flatMap((p) => [p.x, p.y])} stroke={LIT_COLOR} opacity={0.45}
-          strokeWidth={10 * k + OVERLAY_WIRE_WIDTH} lineCap="round" lineJoin="round" perfectDrawEnabled={false} listening={false} />
-      ))}
+      {lit.size > 0 && wires.filter((w) => lit.has(netOfWire.get(w.id) ?? '')).map((w) => <LitWire key={`lit:${w.id}`} wire={w} k={k} />)}
       {wires.map((w) => {
         const mark = ann.nets[netOfWire.get(w.id) ?? ''];
-        if (!mark) return null;
-        return (
-          <Line key={w.id} points={w.points.flatMap((p) => [p.x, p.y])} stroke={mark.color} strokeWidth={OVERLAY_WIRE_WIDTH}
-            lineCap="round" lineJoin="round" perfectDrawEnabled={false} listening={false} />
-        );
+        return mark ? <MarkedWire key={w.id} wire={w} color={mark.color} /> : null;
       })}
       {ann.slowest && (
         <Group x={ann.slowest.anchor.x} y={ann.slowest.anchor.y} listening={false}>

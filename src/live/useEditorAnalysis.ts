@@ -36,6 +36,12 @@ export function useEditorAnalysis(editor: Editor, given?: LiveStore) {
   useEffect(() => {
     if (store.getState().doc !== doc) actions.submit(doc, { drag: dragging });
   }, [store, actions, doc, dragging]);
+  // Submit at the edit itself, before React renders it: the worker starts on the new drawing while
+  // the page is still drawing the edit (the effect above then finds it submitted).
+  useEffect(() => editor.subscribe(() => {
+    const d = editor.document;
+    if (store.getState().doc !== d) store.actions.submit(d, { drag: editor.state.mode === 'select.moving' });
+  }), [editor, store]);
 
   const wires = useMemo(() => netOfWire(state.drawing), [state.drawing]);
   const hover = editor.state.hover;

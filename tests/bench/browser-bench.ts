@@ -6,6 +6,7 @@
 // MutationObserver stamps the first change of the overlay's badge texts/titles, and the next
 // requestAnimationFrame stamps the frame that shows it. The app's own performance measures
 // ("ps:" names, src/live/perfMarks.ts) split each edit into netlist, worker, annotate and paint.
+import { writeFileSync } from 'node:fs';
 import { netlistToDrawing } from '../../src/layout/importNetlist';
 import { nodeElk } from '../../src/layout/elkNode';
 import { saveDrawing } from '../../src/schematic/file';
@@ -15,6 +16,9 @@ import { placedBounds } from '../../src/schematic/symbols';
 import { artifactPath, buildAndServe, HAVE_CHROMIUM, INSTALL_HINT, launchBrowser } from '../browser/harness';
 
 const EDITS = Number(process.env.BENCH_EDITS ?? 16);
+/** BENCH_PROFILE=1: an unminified build and a CPU profile of the page's main thread over the
+ *  edits (Chrome DevTools Protocol), summarised as the functions with the most self time. */
+const PROFILE = process.env.BENCH_PROFILE === '1';
 
 /** Invented chain: 19 common-source stages, each loaded by R and followed by a two-section RC. */
 function chainNetlist(stages: number) {
@@ -41,7 +45,7 @@ function chainNetlist(stages: number) {
   };
 }
 
-interface Stamp { t0: number; t1: number; t2: number; snap: string; measures: { name: string; start: number; ms: number }[] }
+interface Stamp { t0: number; t1: number; t2: number; snap: string; measures: { name: string; start: number; ms: number }[]; longTasks: { start: number; ms: number }[] }
 
 const med = (v: number[]) => { const s = [...v].sort((a, b) => a - b); return s.length ? s[Math.floor(s.length / 2)] : NaN; };
 const fmt = (v: number) => (Number.isFinite(v) ? v.toFixed(1) : '—');
@@ -55,7 +59,7 @@ async function main() {
   const unknowns = engineCheck.unknowns.nodes + engineCheck.unknowns.branches;
   console.log(`drawing: ${Object.keys(doc.parts).length} parts, ${unknowns} MNA unknowns (${engineCheck.unknowns.nodes} nodes + ${engineCheck.unknowns.branches} branches)`);
 
-  const served = await buildAndServe();
+  const served = await buildAndServe({ minify: !PROFILE });
   const { browser, page } = await launchBrowser();
   try {
     // tsx keeps function names with a helper the page lacks; the flag turns on the app's ps: measures
@@ -87,7 +91,13 @@ async function main() {
         if (!root) return '';
         return Array.from(root.querySelectorAll('.ao-badge, .ao-dot')).map((e) => (e as HTMLElement).innerText + '|' + (e.getAttribute('title') ?? '')).join('\n');
       };
-      w.__bench = { t0: 0, t1: 0, t2: 0, snap: snap(), measures: [] };
+      w.__bench = { t0: 0, t1: 0, t2: 0, snap: snap(), measures: [], longTasks: [] };
+      // main-thread tasks over 50 ms (Long Tasks API): where the page could not answer input
+      const long: { start: number; ms: number }[] = [];
+      try {
+        new PerformanceObserver((list) => { for (const e of list.getEntries()) long.push({ start: e.startTime, ms: e.duration }); }).observe({ type: 'longtask', buffered: false });
+      } catch { /* no Long Tasks API */ }
+      (w as unknown as { __long: typeof long }).__long = long;
       window.addEventListener('click', () => {
         performance.clearMeasures();
         w.__bench.t0 = performance.now(); w.__bench.t1 = 0; w.__bench.t2 = 0; w.__bench.snap = snap();
@@ -101,13 +111,22 @@ async function main() {
           requestAnimationFrame(() => {
             b.t2 = performance.now();
             b.measures = performance.getEntriesByType('measure').filter((m) => m.name.startsWith('ps:')).map((m) => ({ name: m.name, start: m.startTime - b.t0, ms: m.duration }));
+            b.longTasks = (w as unknown as { __long: { start: number; ms: number }[] }).__long.filter((t) => t.start + t.ms >= b.t0 && t.start <= b.t2).map((t) => ({ start: t.start - b.t0, ms: t.ms }));
           });
         }
       }).observe(document.body, { subtree: true, childList: true, characterData: true, attributes: true, attributeFilter: ['title'] });
     });
 
+    const cdp = PROFILE ? await page.context().newCDPSession(page) : null;
+    if (cdp) {
+      await cdp.send('Profiler.enable');
+      await cdp.send('Profiler.setSamplingInterval', { interval: 200 });
+      await cdp.send('Profiler.start');
+    }
     const toOverlay: number[] = [], toFrame: number[] = [];
     const split = new Map<string, number[]>();
+    const offsets = new Map<string, number[]>();
+    const longSum: number[] = [];
     for (let i = 0; i < EDITS; i++) {
       await page.getByRole('button', { name: i % 2 === 0 ? 'Undo' : 'Redo', exact: true }).click();
       try {
@@ -121,19 +140,49 @@ async function main() {
       toFrame.push(t.t2 - t.t0);
       // per edit: sum of each measure's durations that started after the click
       const sums = new Map<string, number>();
-      for (const m of t.measures) if (m.start >= 0) sums.set(m.name, (sums.get(m.name) ?? 0) + m.ms);
+      for (const m of t.measures) {
+        if (m.start < -1) continue; // measures of earlier edits (a worker duration may start a hair early)
+        sums.set(m.name, (sums.get(m.name) ?? 0) + m.ms);
+        if (!offsets.has(m.name) || offsets.get(m.name)!.length < toFrame.length) offsets.set(m.name, [...(offsets.get(m.name) ?? []), m.start]);
+      }
       for (const [name, ms] of sums) split.set(name, [...(split.get(name) ?? []), ms]);
+      longSum.push(t.longTasks.reduce((s2, x) => s2 + x.ms, 0));
       // the feedback stage must not overlap the next click's clock
       await page.waitForFunction(() => !document.querySelector('.ao-busy'), undefined, { timeout: 60000 });
+    }
+    if (cdp) {
+      const prof = (await cdp.send('Profiler.stop')).profile as CpuProfile;
+      printProfile(prof);
+      if (process.env.BENCH_PROFILE_OUT) writeFileSync(process.env.BENCH_PROFILE_OUT, JSON.stringify(prof));
     }
     console.log(`edit → overlay DOM updated: median ${fmt(med(toOverlay))} ms (min ${fmt(Math.min(...toOverlay))}, max ${fmt(Math.max(...toOverlay))}) over ${EDITS} undo/redo clicks`);
     console.log(`edit → frame showing it:   median ${fmt(med(toFrame))} ms (min ${fmt(Math.min(...toFrame))}, max ${fmt(Math.max(...toFrame))}); ratio to one 60 Hz frame ${(med(toFrame) / (1000 / 60)).toFixed(1)}×`);
     if (split.size === 0) console.log('(no ps: performance measures recorded by this build)');
-    for (const [name, v] of [...split].sort()) console.log(`  ${name.padEnd(24)} median ${fmt(med(v))} ms (min ${fmt(Math.min(...v))}, max ${fmt(Math.max(...v))}, ${v.length} edits)`);
+    for (const [name, v] of [...split].sort()) {
+      console.log(`  ${name.padEnd(20)} median ${fmt(med(v))} ms (min ${fmt(Math.min(...v))}, max ${fmt(Math.max(...v))}, ${v.length} edits); starts ${fmt(med(offsets.get(name) ?? []))} ms after the click`);
+    }
+    console.log(`  main-thread long tasks (> 50 ms) per edit: median ${fmt(med(longSum))} ms (max ${fmt(Math.max(...longSum))})`);
   } finally {
     await browser.close();
     await served.close();
   }
+}
+
+interface CpuProfile { nodes: { id: number; callFrame: { functionName: string; url: string; lineNumber: number } }[]; samples: number[]; timeDeltas: number[] }
+
+/** Self time per function (main thread, whole edit loop incl. idle waits between edits). */
+function printProfile(p: CpuProfile) {
+  const byId = new Map(p.nodes.map((n) => [n.id, n]));
+  const self = new Map<string, number>();
+  p.samples.forEach((id, i) => {
+    const f = byId.get(id)!.callFrame;
+    const name = `${f.functionName || '(anonymous)'} ${f.url.split('/').pop()}:${f.lineNumber}`;
+    self.set(name, (self.get(name) ?? 0) + (p.timeDeltas[i] ?? 0) / 1000);
+  });
+  const busy = [...self].filter(([n]) => !n.startsWith('(idle)') && !n.startsWith('(program)'));
+  const total = busy.reduce((s, [, ms]) => s + ms, 0);
+  console.log(`main-thread CPU profile: ${total.toFixed(0)} ms busy over the edits; top self time:`);
+  for (const [n, ms] of busy.sort((a, b) => b[1] - a[1]).slice(0, 25)) console.log(`  ${ms.toFixed(1).padStart(8)} ms  ${n}`);
 }
 
 await main();

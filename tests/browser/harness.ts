@@ -27,10 +27,10 @@ export interface Served { url: string; close(): Promise<void> }
 /** Build the app once per test run (shared by every browser test file: vitest's forked workers
  *  share the parent's pid, so the first one builds under a lock and the others wait), then serve it
  *  with Vite's preview server on a free port. */
-export async function buildAndServe(): Promise<Served> {
+export async function buildAndServe(opts: { minify?: boolean } = {}): Promise<Served> {
   const { preview } = await import('vite');
   const configFile = join(ROOT, 'src', 'vite.config.ts');
-  const outDir = await sharedBuild(configFile);
+  const outDir = await sharedBuild(configFile, opts.minify ?? true);
   const server = await preview({
     configFile,
     logLevel: 'error',
@@ -41,15 +41,16 @@ export async function buildAndServe(): Promise<Served> {
   return { url, close: () => new Promise<void>((r) => server.httpServer.close(() => r())) };
 }
 
-async function sharedBuild(configFile: string): Promise<string> {
-  const outDir = join(tmpdir(), `polesketch-build-${process.ppid}`);
+/** `minify: false` builds a separate copy with readable function names (for CPU profiles). */
+async function sharedBuild(configFile: string, minify: boolean): Promise<string> {
+  const outDir = join(tmpdir(), `polesketch-build-${process.ppid}${minify ? '' : '-plain'}`);
   const done = join(outDir, '.built');
   const lock = `${outDir}.lock`;
   let mine = false;
   try { mkdirSync(lock); mine = true; } catch { /* another worker builds */ }
   if (mine) {
     const { build } = await import('vite');
-    await build({ configFile, logLevel: 'error', build: { outDir, emptyOutDir: true } });
+    await build({ configFile, logLevel: 'error', build: { outDir, emptyOutDir: true, ...(minify ? {} : { minify: false }) } });
     writeFileSync(done, new Date().toISOString());
     return outDir;
   }
