@@ -115,10 +115,11 @@ export function analyzeFeedbackSystem(sys: MnaSystem, opts: FeedbackOptions = {}
   const cache = new Map<string, BlackmanResult>();
   const pencils = new Map<number, FullPencil>();
   const splits = new Map<string, SplitNetwork | null>();
+  const G = scaledG(sys, sourceStamps(sys), scale);
   const loops: LoopReport[] = d.loops.map((loop) => {
     const { returnRatio: _sweep, ...rest } = loop;
     void _sweep;
-    return { loop: rest, regulation: loopRegulation(sys, loop, { scale, cache, pencils, splits }), margins: margins.get(loop.key)! };
+    return { loop: rest, regulation: loopRegulation(sys, loop, { scale, cache, pencils, splits, G }), margins: margins.get(loop.key)! };
   });
   const hasTransfer = sys.b.some((v) => v !== 0) && sys.c.some((v) => v !== 0);
   // one pole computation of the system as analysed serves doublets, sensitivity and step response

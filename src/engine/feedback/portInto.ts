@@ -10,6 +10,7 @@ import type { Cx, Element, MnaSystem } from '../types';
 import { PencilAt, scaledG, sourceStamps, uVector, vVector } from './pencil';
 import type { SourceStamp } from './pencil';
 import { scaleStamp } from './returnRatio';
+import { SplitBorder } from './splitBorder';
 import { cabs, cadd, cdiv, cmul, csub, cx } from './cx';
 
 export interface PortFactor {
@@ -28,19 +29,24 @@ export interface SplitNetwork {
   part: string;
   node: number;
   m: number;
-  pencil: PencilAt;
+  /** The split network's own factor; null when it is worked from the full network's factor
+   *  (`border`, splitBorder.ts). */
+  pencil: PencilAt | null;
+  border: SplitBorder | null;
   /** Impedance to ground at X′ with everything in place. */
   z: Cx;
 }
 
 export function splitNetwork(
-  sys: MnaSystem, part: string, node: number, opts: { fHz?: number; scale?: Record<string, number> } = {},
+  sys: MnaSystem, part: string, node: number,
+  opts: { fHz?: number; scale?: Record<string, number>; G?: Float64Array; full?: PencilAt } = {},
 ): SplitNetwork | null {
   if (node < 0 || node >= sys.nodeCount) return null;
   const scale = opts.scale ?? {};
   const n = sys.n;
   const m = n + 1;
-  const G = embed(scaledG(sys, sourceStamps(sys), scale), n, m);
+  // `opts.G`: G with the scales already applied, when the caller holds it
+  const G = embed(opts.G ?? scaledG(sys, sourceStamps(sys), scale), n, m);
   const C = embed(sys.C, n, m);
   let moved = false;
   for (const el of sys.elements) {
@@ -49,33 +55,33 @@ export function splitNetwork(
     moved = moveElement(G, C, m, sys.nodeCount, el, node, n, k) || moved;
   }
   if (!moved) return null;
-  const pencil = new PencilAt(G, C, m, 2 * Math.PI * (opts.fHz ?? 0));
+  const omega = 2 * Math.PI * (opts.fHz ?? 0);
+  // `opts.full`: the full network (same scales) factored at this frequency
+  const border = opts.full && !opts.full.singular && opts.full.omega === omega ? SplitBorder.of(G, C, n, node, omega, opts.full) : null;
+  if (border) return { part, node, m, pencil: null, border, z: border.z };
+  const pencil = new PencilAt(G, C, m, omega);
   if (pencil.singular) return null;
   const e = new Float64Array(m);
   e[n] = 1;
   const x = pencil.solve(e);
-  return { part, node, m, pencil, z: cx(x.re[n], x.im[n]) };
+  return { part, node, m, pencil, border: null, z: cx(x.re[n], x.im[n]) };
 }
 
 /** Factor looking into the split part for one key; null when the key is unknown or the
  *  key-removed split network is singular (1 − a ≈ 0). */
-export function portFactor(sys: MnaSystem, key: string, split: SplitNetwork, scale: Record<string, number> = {}): PortFactor | null {
-  const raw = sourceStamps(sys).find((s) => s.id === key);
+export function portFactor(
+  sys: MnaSystem, key: string, split: SplitNetwork, scale: Record<string, number> = {}, stamps: SourceStamp[] = sourceStamps(sys),
+): PortFactor | null {
+  const raw = stamps.find((s) => s.id === key);
   if (!raw) return null;
-  const { m, node, pencil, z } = split;
+  const { m, node, z } = split;
   const x = m - 1;
   const remap = (v: number) => (v === node ? x : v);
   let s: SourceStamp = scaleStamp(raw, scale[key]);
   if (s.part === split.part) s = { ...s, uRows: s.uRows.map(remap), cp: remap(s.cp), cn: remap(s.cn) };
-  const u = uVector(s, m);
-  const v = vVector(s, m);
-  const p = pencil.solve(u); // M⁻¹u
-  const q = pencil.solveTransposed(v); // (vᵀM⁻¹)ᵀ
-  let a = cx(0);
-  for (let i = 0; i < m; i++) if (v[i]) a = cadd(a, cmul(cx(v[i]), cx(p.re[i], p.im[i])));
+  const { a, px, qx } = split.border ? split.border.keyTerms(s) : ownTerms(split.pencil!, s, m, x);
   const delta = csub(cx(1), a);
   if (cabs(delta) <= 1e-9 * Math.max(1, cabs(a))) return null;
-  const px = cx(p.re[x], p.im[x]), qx = cx(q.re[x], q.im[x]);
   // key removed (Sherman–Morrison): Z⁰ = Z + p_X q_X/(1 − a), M⁰⁻¹u = p/(1 − a), vᵀM⁰⁻¹ = qᵀ/(1 − a)
   const z0 = cadd(z, cdiv(cmul(px, qx), delta)!);
   if (cabs(z0) === 0) return null;
@@ -85,6 +91,17 @@ export function portFactor(sys: MnaSystem, key: string, split: SplitNetwork, sca
   const factor = cdiv(cadd(cx(1), tSc), cadd(cx(1), tOc));
   if (!factor) return null;
   return { part: split.part, node: sys.nodeNames[node], z, z0, factor };
+}
+
+/** a = vᵀS⁻¹u, [S⁻¹u]_X′ and [S⁻ᵀv]_X′ from the split network's own factor. */
+function ownTerms(pencil: PencilAt, s: SourceStamp, m: number, x: number): { a: Cx; px: Cx; qx: Cx } {
+  const u = uVector(s, m);
+  const v = vVector(s, m);
+  const p = pencil.solve(u); // M⁻¹u
+  const q = pencil.solveTransposed(v); // (vᵀM⁻¹)ᵀ
+  let a = cx(0);
+  for (let i = 0; i < m; i++) if (v[i]) a = cadd(a, cmul(cx(v[i]), cx(p.re[i], p.im[i])));
+  return { a, px: cx(p.re[x], p.im[x]), qx: cx(q.re[x], q.im[x]) };
 }
 
 function embed(A: Float64Array, n: number, m: number): Float64Array {

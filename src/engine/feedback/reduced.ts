@@ -20,6 +20,7 @@ const MAX_SPREAD = 1e5;
 export class ReducedPencil {
   readonly n: number;
   private readonly red: ShiftedReduction;
+  private work?: { ar: Float64Array; ai: Float64Array; yr: Float64Array; yi: Float64Array };
 
   private constructor(red: ShiftedReduction) {
     this.red = red;
@@ -76,10 +77,12 @@ export class ReducedPencil {
   /** ctᵀ(I + (jω − σ)H)⁻¹bt for projected vectors; null where the factor is refused or the final
    *  sum cancels by more than MAX_SPREAD (|value| far below its terms: the caller solves directly). */
   transfer(bt: Float64Array, ct: Float64Array, omega: number): { re: number; im: number } | null {
-    const h = this.factorAt(omega);
-    if (!h) return null;
     const n = this.n;
-    const yr = new Float64Array(n), yi = new Float64Array(n);
+    // one workspace for every point (the factor is used at once and dropped)
+    const w = (this.work ??= { ar: new Float64Array(n * n), ai: new Float64Array(n * n), yr: new Float64Array(n), yi: new Float64Array(n) });
+    const h = HessenbergFactor.of(this.red.H, n, -this.red.sigma, omega, w.ar, w.ai);
+    if (!h) return null;
+    const { yr, yi } = w;
     h.solveReal(bt, yr, yi);
     let re = 0, im = 0, sum = 0;
     for (let i = 0; i < n; i++) {
@@ -111,9 +114,8 @@ export class HessenbergFactor {
     private readonly swap: Uint8Array,
   ) {}
 
-  static of(H: Float64Array, n: number, dr: number, di: number): HessenbergFactor | null {
-    const ar = new Float64Array(n * n);
-    const ai = new Float64Array(n * n);
+  /** `ar`, `ai`: optional n × n workspace (only the Hessenberg band is written and read). */
+  static of(H: Float64Array, n: number, dr: number, di: number, ar: Float64Array = new Float64Array(n * n), ai: Float64Array = new Float64Array(n * n)): HessenbergFactor | null {
     let max2 = 0;
     for (let i = 0; i < n; i++) {
       for (let j = Math.max(0, i - 1); j < n; j++) {

@@ -46,7 +46,7 @@ export function loopRegulation(
   sys: MnaSystem, loop: Loop,
   opts: {
     scale?: Record<string, number>; fHz?: number; cache?: Map<string, BlackmanResult>; pencils?: Map<number, FullPencil>;
-    splits?: Map<string, SplitNetwork | null>;
+    splits?: Map<string, SplitNetwork | null>; G?: Float64Array;
   } = {},
 ): Regulation {
   const common = { ...opts, loopId: loop.id, preferNets: loop.nets, parts: loop.parts };
@@ -68,6 +68,8 @@ export function regulationOf(
     parts?: string[];
     /** Split networks by "part@node@f", shared across keys (filled as needed). */
     splits?: Map<string, SplitNetwork | null>;
+    /** G with `scale` applied, when the caller holds it (else formed here). */
+    G?: Float64Array;
   } = {},
 ): Regulation {
   const atHz = opts.fHz ?? 0;
@@ -75,7 +77,7 @@ export function regulationOf(
   const memo = `${key}@${atHz}`;
   let shared = opts.pencils?.get(atHz);
   if (opts.pencils && !shared && !opts.cache?.has(memo)) {
-    shared = fullPencil(sys, scaledG(sys, sourceStamps(sys), opts.scale ?? {}), atHz);
+    shared = fullPencil(sys, opts.G ?? scaledG(sys, sourceStamps(sys), opts.scale ?? {}), atHz);
     opts.pencils.set(atHz, shared);
   }
   const b = opts.cache?.get(memo) ?? blackmanAt(sys, key, { fHz: atHz, scale: opts.scale, shared });
@@ -104,7 +106,7 @@ export function regulationOf(
       holdsCurrent = { node: pick.node, factor: f, text: `holds the current into ${pick.node} — impedance × ${fmt(f)}` };
     }
   }
-  if (!holdsCurrent && opts.parts?.length) holdsCurrent = heldInto(sys, key, opts.parts, atHz, opts.scale, opts.splits ?? new Map());
+  if (!holdsCurrent && opts.parts?.length) holdsCurrent = heldInto(sys, key, opts.parts, atHz, opts.scale, opts.splits ?? new Map(), opts.G, shared);
   const parts = [holdsVoltage?.text, holdsCurrent?.text].filter(Boolean);
   const where = atHz > 0 ? ` at ${fmt(atHz)} Hz` : ' at DC';
   const summary = parts.length
@@ -118,9 +120,11 @@ export function regulationOf(
  *  other parts share; null below SIGNIFICANT_FACTOR. */
 function heldInto(
   sys: MnaSystem, key: string, parts: string[], fHz: number, scale: Record<string, number> | undefined, splits: Map<string, SplitNetwork | null>,
+  G?: Float64Array, fullAt?: FullPencil,
 ): HeldQuantity | null {
   let best: HeldQuantity | null = null;
   const stamps = sourceStamps(sys);
+  const Gs = G ?? scaledG(sys, stamps, scale ?? {});
   for (const part of parts) {
     const outs = new Set<number>();
     for (const s of stamps) {
@@ -132,9 +136,9 @@ function heldInto(
       const shared = sys.elements.some((e) => e.part !== part && e.type !== 'isource' && touches(e, node));
       if (!shared) continue;
       const memo = `${part}@${node}@${fHz}`;
-      if (!splits.has(memo)) splits.set(memo, splitNetwork(sys, part, node, { fHz, scale }));
+      if (!splits.has(memo)) splits.set(memo, splitNetwork(sys, part, node, { fHz, scale, G: Gs, full: fullAt?.fHz === fHz ? fullAt.pencil : undefined }));
       const split = splits.get(memo);
-      const pf = split ? portFactor(sys, key, split, scale) : null;
+      const pf = split ? portFactor(sys, key, split, scale, stamps) : null;
       if (!pf) continue;
       const f = cabs(pf.factor);
       if (f > SIGNIFICANT_FACTOR && (!best || f > best.factor)) {
