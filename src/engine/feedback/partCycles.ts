@@ -141,19 +141,23 @@ export function findPartCycles(
   // here when the enumeration did not reach it) and the cycle is folded into it.
   multi.sort((a, b) => a.parts.length - b.parts.length || b.mags[b.peakIdx] - a.mags[a.peakIdx]);
   const keptMulti: PartCycle[] = [];
+  const loopsOf: PartCycle[][] = Array.from({ length: P }, () => []);
+  const keep = (c: PartCycle) => { keptMulti.push(c); for (const p of c.parts) loopsOf[p].push(c); };
   for (const c of multi) {
-    const core = withoutDetours(c.parts, keptMulti, (a, b) => pg.peak[a * P + b]);
-    if (core.length === c.parts.length) { keptMulti.push(c); continue; }
+    const core = withoutDetours(c.parts, loopsOf, (a, b) => pg.peak[a * P + b]);
+    if (core.length === c.parts.length) { keep(c); continue; }
     let base = keptMulti.find((k) => sameCycle(k.parts, core)) ?? null;
     if (!base) {
       base = evaluate(core);
-      if (base) keptMulti.push(base);
+      if (base) keep(base);
     }
     if (base) base.folded.push(c.parts);
-    else keptMulti.push(c);
+    else keep(c);
   }
   // a macro's own loop through the same nets as a larger loop through it
-  const netsOf = (c: PartCycle) => new Set(c.pairs.flatMap(([i, j]) => [g.outNode[i * N + j], g.ctlNode[i * N + j]]).filter((v) => v >= 0 && visible(v)));
+  const netMemo = new Map<PartCycle, Set<number>>();
+  const netsOf = (c: PartCycle) => netMemo.get(c) ?? netMemo.set(c, netsOfCycle(c)).get(c)!;
+  const netsOfCycle = (c: PartCycle) => new Set(c.pairs.flatMap(([i, j]) => [g.outNode[i * N + j], g.ctlNode[i * N + j]]).filter((v) => v >= 0 && visible(v)));
   const keptLocal: PartCycle[] = [];
   for (const c of locals) {
     const p = c.parts[0];
@@ -242,7 +246,7 @@ const PARALLEL_RATIO = 0.1;
  *  coupling about as strong as the path through S (PARALLEL_RATIO), and every part of S closes a
  *  listed loop within S ∪ {p, q} that passes p or q (a booster between a cascode's input device and
  *  the cascode: the booster loop is listed on its own). `peak(a, b)`: peak coupling part a → b. */
-function withoutDetours(parts: number[], kept: PartCycle[], peak: (a: number, b: number) => number): number[] {
+function withoutDetours(parts: number[], loopsOf: PartCycle[][], peak: (a: number, b: number) => number): number[] {
   let cur = parts.slice();
   for (let changed = true; changed && cur.length > 2;) {
     changed = false;
@@ -250,13 +254,14 @@ function withoutDetours(parts: number[], kept: PartCycle[], peak: (a: number, b:
     for (let i = 0; i < L && !changed; i++) {
       for (let len = 1; len <= Math.min(DETOUR_LEN, L - 2) && !changed; len++) {
         const p = cur[i], q = cur[(i + len + 1) % L];
-        const run = Array.from({ length: len }, (_, k) => cur[(i + 1 + k) % L]);
-        let path = peak(run[len - 1], q);
-        for (let k = 0; k < len; k++) path *= peak(k === 0 ? p : run[k - 1], run[k]);
         const direct = peak(p, q);
-        if (!(direct > EDGE_FLOOR && direct >= PARALLEL_RATIO * path)) continue;
+        if (!(direct > EDGE_FLOOR)) continue;
+        let path = 1;
+        for (let k = 0, from = p; k <= len; k++) { const to = cur[(i + 1 + k) % L]; path *= peak(from, to); from = to; }
+        if (!(direct >= PARALLEL_RATIO * path)) continue;
+        const run = Array.from({ length: len }, (_, k) => cur[(i + 1 + k) % L]);
         const local = (o: PartCycle) => (o.parts.includes(p) || o.parts.includes(q)) && o.parts.every((x) => x === p || x === q || run.includes(x));
-        if (!run.every((x) => kept.some((o) => o.parts.includes(x) && local(o)))) continue;
+        if (!run.every((x) => loopsOf[x].some(local))) continue;
         cur = cur.filter((x) => !run.includes(x));
         changed = true;
       }
