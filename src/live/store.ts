@@ -98,10 +98,17 @@ export function createLiveStore(opts: LiveStoreOptions = {}): LiveStore {
       perfMeasure('apply-stage1', t0);
       return;
     }
-    if (m.stage === 'sweep') {
-      perfDuration('engine-sweep', m.ms);
-      // Same node table: the overlay (keyed by result.nodes) is not drawn again.
-      if (state.result && state.stage === 1) set({ result: { ...state.result, impedanceSweep: m.impedanceSweep } });
+    if (m.stage === 'complete') {
+      perfDuration('engine-complete', m.ms);
+      const prev = state.result;
+      if (!prev || state.stage !== 1) return;
+      // At the asked frequency the node table is the one stage 1 gave: keep it (and so the
+      // overlay, keyed by it, is not drawn again).
+      const same = m.result.conditions.frequencyHz === prev.conditions.frequencyHz && m.result.nodes.length === prev.nodes.length;
+      const result = same ? { ...m.result, nodes: prev.nodes } : m.result;
+      const patch: Partial<LiveState> = { result, status: result.ok ? state.status : 'error' };
+      if (m.result.issues.length !== prev.issues.length) patch.issues = [...drawingIssues(drawing), ...engineIssues(m.result.issues, doc, drawing)];
+      set(patch);
       return;
     }
     perfDuration('engine-stage2', m.ms);

@@ -64,8 +64,9 @@ export function useEditorAnalysis(editor: Editor, given?: LiveStore) {
   }, [actions, picked]);
 
   const s = state.settings;
-  // annotate() reads the result's node table and conditions only: the sweep merged into the
-  // result later, or a feedback stage that leaves the selected loop as it was, draw nothing new.
+  // annotate() reads the result's node table and frequency only: the complete result (same node
+  // table, kept by the store) or a feedback stage that leaves the selected loop as it was draw
+  // nothing new.
   const selectedLoop = s.selectedLoopId ? state.loops[s.selectedLoopId] : undefined;
   const loopKey = selectedLoop ? JSON.stringify(selectedLoop) : '';
   const ann = useMemo(
@@ -76,7 +77,7 @@ export function useEditorAnalysis(editor: Editor, given?: LiveStore) {
       return out;
     },
     // eslint-disable-next-line react-hooks/exhaustive-deps
-    [state.doc, state.result?.ok, state.result?.nodes, state.result?.conditions, loopKey, s.frequencyHz, s.colorMode, s.selectedLoopId],
+    [state.doc, state.result?.ok, state.result?.nodes, state.result?.conditions.frequencyHz, loopKey, s.frequencyHz, s.colorMode, s.selectedLoopId],
   );
   // stage-1 arrival → this render committed (React work of the whole tree for the new result)
   useLayoutEffect(() => { if (arrivals.stage1 > 0) perfMeasure('render-stage1', arrivals.stage1); }, [state.result?.nodes]);

@@ -1,11 +1,11 @@
 // Messages between the live store and the analysis worker. A run answers in stages: stage 1 is
-// what the canvas overlay draws (poles, node table: analyze() without the node-impedance sweep),
-// then the sweep of every node's impedance (for the |Z(f)| plot), then stage 2, the feedback
-// analysis (several times slower). Every run message carries the run id of its request, so the
+// what the canvas overlay draws (the first part of the engine's analyzeStaged: poles, node
+// table, DC gain), then the complete result (zeros, transfer sweep, OCTC, participation, every
+// node's impedance over frequency), then stage 2, the feedback analysis (several times slower). Every run message carries the run id of its request, so the
 // receiver can drop answers of stale runs. A loop-detail request (the selected loop's T(jω) or
 // root locus, loopDetail.ts) is the other request kind; it is answered after the stages of the
 // current run, newest request only.
-import type { AnalysisResult, ImpedanceSweep, Netlist } from '../engine/index';
+import type { AnalysisResult, Netlist } from '../engine/index';
 import type { BlackmanResult, FeedbackResult } from '../engine/feedback/index';
 import type { LoopDetail, LoopDetailRequest } from './loopDetail';
 
@@ -30,8 +30,8 @@ export type WorkerRequest = RunRequest | LoopDetailRequest;
 /** `ms`: compute time of the stage inside the worker (for the performance marks). */
 export type RunMessage =
   | { runId: number; stage: 1; result: AnalysisResult; ms?: number }
-  /** Every node's impedance over the sweep grid of the stage-1 result (null when not computed). */
-  | { runId: number; stage: 'sweep'; impedanceSweep: ImpedanceSweep | null; ms?: number }
+  /** The whole analyze() result of the run (stage 1's figures unchanged, the rest added). */
+  | { runId: number; stage: 'complete'; result: AnalysisResult; ms?: number }
   | { runId: number; stage: 2; feedback: FeedbackResult; blackman: Record<string, BlackmanResult>; ms?: number }
   /** The run was superseded before it finished (no more messages for it). */
   | { runId: number; stage: 'dropped' }

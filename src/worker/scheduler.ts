@@ -1,8 +1,8 @@
 // One task at a time, newest wins, with a yield to the event loop between tasks (so a newer
-// request can arrive): stage 1 of the newest run, then its node-impedance sweep, then its stage 2
+// request can arrive): stage 1 of the newest run, then its complete result, then its stage 2
 // (each skipped once a newer run is pending), then the newest loop-detail request. Shared by the
 // worker and the same-thread fallback.
-import { runOverlayStage, runStage2, runSweepStage } from './compute';
+import { runOverlayStage, runStage2 } from './compute';
 import { computeLoopDetail } from './loopDetail';
 import { isLoopDetailRequest, type LoopDetailRequest, type RunRequest, type WorkerMessage, type WorkerRequest } from './protocol';
 import type { AnalysisResult } from '../engine/index';
@@ -16,7 +16,7 @@ export interface Scheduler {
 const errText = (e: unknown) => (e instanceof Error ? e.message : String(e));
 const clock = () => (typeof performance !== 'undefined' ? performance.now() : Date.now());
 
-type Later = { req: RunRequest; next: 'sweep' | 'feedback'; result: AnalysisResult };
+type Later = { req: RunRequest; next: 'complete' | 'feedback'; complete: () => AnalysisResult };
 
 export function createScheduler(post: (msg: WorkerMessage) => void, yieldNow: (fn: () => void) => void = (fn) => setTimeout(fn, 0)): Scheduler {
   let pending: RunRequest | null = null;
@@ -33,9 +33,9 @@ export function createScheduler(post: (msg: WorkerMessage) => void, yieldNow: (f
 
   const stage1 = (req: RunRequest) => {
     try {
-      const [result, ms] = timed(() => runOverlayStage(req));
-      post({ runId: req.runId, stage: 1, result, ms });
-      later = result.ok ? { req, next: 'sweep', result } : null;
+      const [staged, ms] = timed(() => runOverlayStage(req));
+      post({ runId: req.runId, stage: 1, result: staged.first, ms });
+      later = staged.first.ok ? { req, next: 'complete', complete: staged.complete } : null;
     } catch (e) {
       post({ runId: req.runId, stage: 'failed', message: `analysis: ${errText(e)}` });
     }
@@ -43,13 +43,14 @@ export function createScheduler(post: (msg: WorkerMessage) => void, yieldNow: (f
 
   const continueRun = (l: Later) => {
     const { req } = l;
-    if (l.next === 'sweep') {
+    if (l.next === 'complete') {
       try {
-        const [impedanceSweep, ms] = timed(() => runSweepStage(req, l.result));
-        post({ runId: req.runId, stage: 'sweep', impedanceSweep, ms });
+        const [result, ms] = timed(l.complete);
+        post({ runId: req.runId, stage: 'complete', result, ms });
       } catch (e) {
-        post({ runId: req.runId, stage: 'sweep', impedanceSweep: null });
-        void e; // the overlay and the plots other than |Z(f)| stand; the plot says it is missing
+        post({ runId: req.runId, stage: 'failed', message: `analysis: ${errText(e)}` });
+        later = null;
+        return;
       }
       later = req.feedback === false ? null : { ...l, next: 'feedback' };
       return;

@@ -150,6 +150,10 @@ async function main() {
       // the feedback stage must not overlap the next click's clock
       await page.waitForFunction(() => !document.querySelector('.ao-busy'), undefined, { timeout: 60000 });
     }
+    // a look by eye at the overlay after the edits (zoomed in to a readable size)
+    for (let i = 0; i < 4; i++) await page.locator('.sheet-zoom').getByTitle('Zoom in').click();
+    await page.waitForTimeout(300);
+    await page.screenshot({ path: artifactPath('bench-overlay.png') });
     if (cdp) {
       const prof = (await cdp.send('Profiler.stop')).profile as CpuProfile;
       printProfile(prof);

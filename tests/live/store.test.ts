@@ -104,30 +104,28 @@ describe('stale runs', () => {
     sch.push(req(3, '22k')); // arrives between the stages of run 2
     while (queue.length) queue.shift()!();
     const summary = posted.map((p) => (p.stage === 'loopDetail' ? 'detail' : `${p.runId}:${p.stage}`));
-    expect(summary).toEqual(['1:dropped', '2:1', '2:dropped', '3:1', '3:sweep', '3:2']);
+    expect(summary).toEqual(['1:dropped', '2:1', '2:dropped', '3:1', '3:complete', '3:2']);
   });
 
-  test('stage 1 is the overlay data; the sweep that follows gives each node |Z| over frequency', () => {
+  test('stage 1 is the overlay data; the complete result that follows equals analyze() and adds the sweeps', () => {
     const posted: WorkerMessage[] = [];
     const queue: (() => void)[] = [];
     const sch = createScheduler((msg) => posted.push(msg), (fn) => queue.push(fn));
-    sch.push({ runId: 1, netlist: netlistOf('4.7k'), frequencyHz: 0, offSources: [], offLoops: [], feedback: false });
+    const request: RunRequest = { runId: 1, netlist: netlistOf('4.7k'), frequencyHz: 0, offSources: [], offLoops: [], feedback: false };
+    sch.push(request);
     while (queue.length) queue.shift()!();
-    const s1 = posted.find((p) => p.stage === 1), sw = posted.find((p) => p.stage === 'sweep');
-    if (s1?.stage !== 1 || sw?.stage !== 'sweep') throw new Error('stage 1 and the sweep were expected');
+    const s1 = posted.find((p) => p.stage === 1), done = posted.find((p) => p.stage === 'complete');
+    if (s1?.stage !== 1 || done?.stage !== 'complete') throw new Error('stage 1 and the complete result were expected');
+    expect(posted.map((p) => (p.stage === 'loopDetail' ? 'detail' : `${p.runId}:${p.stage}`))).toEqual(['1:1', '1:complete']);
     expect(s1.result.impedanceSweep).toBeNull();
-    const k = sw.impedanceSweep!.nodes.indexOf('out');
-    expect(k).toBeGreaterThanOrEqual(0);
-    // at the lowest sweep frequency |Z(out)| is close to the DC value R1 ∥ ro (Gray & Meyer, R_D ∥ r_o)
-    const z0 = sw.impedanceSweep!.values[k][0]!;
-    expect(Math.hypot(z0.re, z0.im) / par(4700, 1 / GDS)).toBeCloseTo(1, 2);
-    // and it agrees with analyze() asked for the sweep itself (the one-call path)
-    const whole = runStage1({ runId: 1, netlist: netlistOf('4.7k'), frequencyHz: 0, offSources: [], offLoops: [] }).impedanceSweep!;
-    expect(sw.impedanceSweep!.hz).toEqual(whole.hz);
-    whole.values[k].forEach((z, i) => {
-      const got = sw.impedanceSweep!.values[k][i]!;
-      expect(Math.hypot(got.re - z!.re, got.im - z!.im) / Math.hypot(z!.re, z!.im)).toBeLessThan(1e-9);
-    });
+    // the overlay's figure: |Z(out)| at DC = R1 ∥ ro (Gray & Meyer, R_D ∥ r_o)
+    expect(s1.result.nodes.find((n) => n.name === 'out')!.dcOhms).toBeCloseTo(par(4700, 1 / GDS), 6);
+    const whole = runStage1(request);
+    expect(done.result.nodes).toEqual(s1.result.nodes);
+    expect(done.result.poles).toEqual(whole.poles);
+    expect(done.result.zeros).toEqual(whole.zeros);
+    expect(done.result.impedanceSweep).toEqual(whole.impedanceSweep);
+    expect(done.result.impedanceSweep!.nodes).toContain('out');
   });
 
   test('loop-detail requests run after the stages of the current run, newest only', () => {
@@ -141,7 +139,7 @@ describe('stale runs', () => {
     sch.push(detail(2)); // supersedes 1 before it started
     while (queue.length) queue.shift()!();
     const summary = posted.map((p) => (p.stage === 'loopDetail' ? `detail:${p.detail.id}` : `${p.runId}:${p.stage}`));
-    expect(summary).toEqual(['1:1', '1:sweep', '1:2', 'detail:2']);
+    expect(summary).toEqual(['1:1', '1:complete', '1:2', 'detail:2']);
     const d = posted.at(-1)!;
     if (d.stage !== 'loopDetail') throw new Error('loop detail expected');
     expect(d.detail.values.length).toBe(d.detail.hz.length);
