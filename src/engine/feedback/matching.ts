@@ -62,7 +62,19 @@ export function assign(cost: Float64Array, rows: number, cols: number): Int32Arr
 /** Match poles `a` to poles `b`; pairs farther apart than `maxDistance` are left unmatched. */
 export function matchPoles(a: Cx[], b: Cx[], maxDistance = Infinity): Int32Array {
   const cost = new Float64Array(a.length * b.length);
-  for (let i = 0; i < a.length; i++) for (let j = 0; j < b.length; j++) cost[i * b.length + j] = poleDistance(a[i], b[j]);
+  // magnitudes and angles once per pole; each pair then as in poleDistance (same operations)
+  const floor = 1e-3;
+  const ma = a.map((p) => Math.max(Math.hypot(p.re, p.im), floor)), mb = b.map((p) => Math.max(Math.hypot(p.re, p.im), floor));
+  const aa = a.map((p) => Math.atan2(p.im, p.re)), ab = b.map((p) => Math.atan2(p.im, p.re));
+  for (let i = 0; i < a.length; i++) {
+    for (let j = 0; j < b.length; j++) {
+      const da = Math.log(ma[i] / mb[j]);
+      let dArg = aa[i] - ab[j];
+      while (dArg > Math.PI) dArg -= 2 * Math.PI;
+      while (dArg < -Math.PI) dArg += 2 * Math.PI;
+      cost[i * b.length + j] = Math.hypot(da, dArg);
+    }
+  }
   const m = assign(cost, a.length, b.length);
   for (let i = 0; i < a.length; i++) if (m[i] >= 0 && cost[i * b.length + m[i]] > maxDistance) m[i] = -1;
   return m;
