@@ -8,6 +8,7 @@ import type { Pole, PoleResult } from '../analyses/poles';
 import { computeZeros } from '../analyses/zeros';
 import { dcTransfer, transferEvaluator } from '../analyses/transfer';
 import { findBandwidth, logGrid, sweepTransfer } from '../analyses/frequency';
+import type { ShiftedReduction } from '../analyses/hessenberg';
 import { matchPoles } from './matching';
 import { scaledG, sourceStamps } from './pencil';
 import { loopMargins } from './margins';
@@ -70,7 +71,10 @@ export interface BoosterCheck {
 /** Loops built around a cascode: an amplifier (the loop's key) drives a device's gate and senses
  *  its source. One check per (amplifier, device) pair, on the loop with the fewest members. */
 /** `margins`: the loops' margins by key when already computed (else each booster's are computed). */
-export function boosterChecks(sys: MnaSystem, loops: Loop[], opts: { scale?: Record<string, number>; margins?: Map<string, LoopMargins> } = {}): BoosterCheck[] {
+/** `reduction`: the shifted Hessenberg form of the network as analysed, when the caller holds it. */
+export function boosterChecks(
+  sys: MnaSystem, loops: Loop[], opts: { scale?: Record<string, number>; margins?: Map<string, LoopMargins>; reduction?: ShiftedReduction } = {},
+): BoosterCheck[] {
   const found = new Map<string, { loop: Loop; device: string }>();
   for (const loop of loops) {
     const key = sys.elements.find((e) => (e.type === 'vccs' || e.type === 'vcvs') && e.id === loop.key);
@@ -96,7 +100,7 @@ export function boosterChecks(sys: MnaSystem, loops: Loop[], opts: { scale?: Rec
   for (const { loop } of found.values()) allOff[loop.key] = 0;
   // main amplifier: the chosen transfer as drawn (closed-loop bandwidth), and with boosters off (its poles)
   const sysNow = { ...sys, G: scaledG(sys, stamps, base) };
-  const bw = closedLoopBandwidth(sysNow);
+  const bw = closedLoopBandwidth(sysNow, opts.reduction);
   const plainSys = { ...sys, G: scaledG(sys, stamps, allOff) };
   const plain = computePoles(plainSys);
   // poles the transfer cannot see (the switched-off booster's own internal modes) are cancelled by
@@ -118,10 +122,10 @@ export function boosterChecks(sys: MnaSystem, loops: Loop[], opts: { scale?: Rec
   });
 }
 
-function closedLoopBandwidth(sys: MnaSystem): number | null {
+function closedLoopBandwidth(sys: MnaSystem, reduction?: ShiftedReduction): number | null {
   const dc = dcTransfer(sys);
   if (dc.value === null) return null;
-  const ev = transferEvaluator(sys);
+  const ev = transferEvaluator(sys, undefined, reduction);
   const sw = sweepTransfer(ev, logGrid(1, 1e12, 5)); // the band edge is refined by findBandwidth
   return findBandwidth(ev, sw, dc.value).hz;
 }

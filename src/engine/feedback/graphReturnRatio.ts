@@ -33,8 +33,8 @@ export function returnRatiosFromGraph(
       }
     }
     const complex = g.fHz[fi] > 0;
-    const real = complex ? null : luReal(Ar, N);
-    const cplx = complex ? luComplex(Ar, Ai, N) : null;
+    const real = complex ? null : luReal(Ar, N, 1e-14, true); // Ar, Ai are this frequency's own: factored in place
+    const cplx = complex ? luComplex(Ar, Ai, N, 1e-14, true) : null;
     if ((real?.singularAt ?? cplx!.singularAt) >= 0) { missing.add(fi); continue; }
     idx.forEach((k, a) => {
       if (k < 0) return;

@@ -19,6 +19,7 @@ import { stepResponse } from './step';
 import type { StepResponse } from './step';
 import type { PoleSensitivity } from './sensitivity';
 import { scaledG, sourceStamps } from './pencil';
+import { ReducedPencil } from './reduced';
 
 export { discoverLoops } from './loops';
 export type { Loop, LoopDiscovery, LoopMember, LoopBand } from './loops';
@@ -110,12 +111,15 @@ export function analyzeFeedbackSystem(sys: MnaSystem, opts: FeedbackOptions = {}
   // the discovery's sweep of each key's return ratio serves the margins (one factor per frequency)
   // (a caller's own discovery grid may be too sparse for that: then the margins' own grid)
   const sweeps = [...new Map(d.loops.map((l) => [l.key, l.returnRatio])).values()];
-  const marginList = opts.freqsHz ? loopMarginsMany(sys, sweeps.map((x) => x.id), { scale }) : loopMarginsFromSweeps(sys, sweeps, { scale });
+  // one Hessenberg form of the network as analysed serves the margins' crossing searches and the
+  // boosters' closed-loop bandwidth
+  const G = scaledG(sys, sourceStamps(sys), scale);
+  const reduced = ReducedPencil.of(G, sys.C, sys.n);
+  const marginList = opts.freqsHz ? loopMarginsMany(sys, sweeps.map((x) => x.id), { scale }) : loopMarginsFromSweeps(sys, sweeps, { scale, reduced });
   const margins = new Map(marginList.map((m) => [m.key, m]));
   const cache = new Map<string, BlackmanResult>();
   const pencils = new Map<number, FullPencil>();
   const splits = new Map<string, SplitNetwork | null>();
-  const G = scaledG(sys, sourceStamps(sys), scale);
   const loops: LoopReport[] = d.loops.map((loop) => {
     const { returnRatio: _sweep, ...rest } = loop;
     void _sweep;
@@ -135,7 +139,7 @@ export function analyzeFeedbackSystem(sys: MnaSystem, opts: FeedbackOptions = {}
     threshold: d.threshold,
     groups: d.groups,
     notes: d.notes,
-    boosters: hasTransfer ? boosterChecks(sys, d.loops, { scale, margins }) : [],
+    boosters: hasTransfer ? boosterChecks(sys, d.loops, { scale, margins, reduction: reduced?.reduction }) : [],
     doublets: hasTransfer ? findDoublets(sys, { scale, poles }) : null,
     slowestPole: poleSensitivity(scaled, { poles }),
     step: hasTransfer ? stepResponse(scaled, { maxPoints: 400, poles }) : null,
@@ -172,7 +176,8 @@ function jsonSafe<T>(v: T): T {
     if (x instanceof Float64Array || x instanceof Int32Array) return Array.from(x as ArrayLike<number>, (y) => (Number.isFinite(y) ? y : null));
     if (x && typeof x === 'object') {
       const o: Record<string, unknown> = {};
-      for (const [k, val] of Object.entries(x)) o[k] = walk(val);
+      const src = x as Record<string, unknown>;
+      for (const k in src) if (Object.prototype.hasOwnProperty.call(src, k)) o[k] = walk(src[k]);
       return o;
     }
     return x;

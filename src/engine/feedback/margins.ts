@@ -55,13 +55,16 @@ export function loopMarginsMany(sys: MnaSystem, keys: string[], opts: MarginOpti
 
 /** Margins from return-ratio sweeps already computed (e.g. the loop discovery's, one factor per
  *  frequency for all keys); only the crossings are polished by extra solves. */
-export function loopMarginsFromSweeps(sys: MnaSystem, sweeps: ReturnRatioSweep[], opts: { scale?: Record<string, number> } = {}): LoopMargins[] {
+/** `reduced`: the Hessenberg form of the same (scaled) network when the caller holds it. */
+export function loopMarginsFromSweeps(
+  sys: MnaSystem, sweeps: ReturnRatioSweep[], opts: { scale?: Record<string, number>; reduced?: ReducedPencil | null } = {},
+): LoopMargins[] {
   const stamps = sourceStamps(sys);
   const G = scaledG(sys, stamps, opts.scale ?? {});
   const found = sweeps.map((sw) => stamps.find((s) => s.id === sw.id)).map((raw) => (raw ? scaleStamp(raw, opts.scale?.[raw.id]) : null));
   const live = found.filter((s): s is NonNullable<typeof s> => s !== null);
   const mid = sweeps.find((sw) => sw.fHz.length)?.fHz;
-  const polish = polishers(sys, G, live, mid ? mid[mid.length >> 1] : 1e6);
+  const polish = polishers(sys, G, live, mid ? mid[mid.length >> 1] : 1e6, opts.reduced);
   let li = 0;
   return sweeps.map((sw, k) => {
     if (!found[k]) return { ...emptyMargins(sw.id), status: 'unknown-source' as const, message: `no controlled source "${sw.id}" in this network` };
@@ -72,9 +75,11 @@ export function loopMarginsFromSweeps(sys: MnaSystem, sweeps: ReturnRatioSweep[]
 /** T(j2πf) of each source for the crossing searches: on the network's Hessenberg form (reduced.ts,
  *  Laub 1981), one O(n²) solve per point instead of a new factor, when it agrees with the direct
  *  solve at a probe frequency; the direct solve where the fast path refuses a point. */
-function polishers(sys: MnaSystem, G: Float64Array, stamps: SourceStamp[], probeHz: number): ((f: number) => ReturnRatioPoint)[] {
+function polishers(
+  sys: MnaSystem, G: Float64Array, stamps: SourceStamp[], probeHz: number, reduced?: ReducedPencil | null,
+): ((f: number) => ReturnRatioPoint)[] {
   const direct = stamps.map((s) => (f: number) => returnRatiosAt(sys, G, [s], 2 * Math.PI * f)[0]);
-  const rp = stamps.length ? ReducedPencil.of(G, sys.C, sys.n) : null;
+  const rp = !stamps.length ? null : reduced !== undefined ? reduced : ReducedPencil.of(G, sys.C, sys.n);
   if (!rp) return direct;
   const forms = stamps.map((s) => (controlIsGround(s) || s.value === 0 ? null : {
     bt: rp.input(uVector(s, sys.n)),

@@ -45,20 +45,32 @@ export function splitNetwork(
   const scale = opts.scale ?? {};
   const n = sys.n;
   const m = n + 1;
-  // `opts.G`: G with the scales already applied, when the caller holds it
-  const G = embed(opts.G ?? scaledG(sys, sourceStamps(sys), scale), n, m);
-  const C = embed(sys.C, n, m);
-  let moved = false;
-  for (const el of sys.elements) {
-    if (el.part !== part) continue;
-    const k = el.type === 'vccs' || el.type === 'vcvs' ? (scale[el.id] ?? 1) : 1;
-    moved = moveElement(G, C, m, sys.nodeCount, el, node, n, k) || moved;
-  }
-  if (!moved) return null;
   const omega = 2 * Math.PI * (opts.fHz ?? 0);
-  // `opts.full`: the full network (same scales) factored at this frequency
-  const border = opts.full && !opts.full.singular && opts.full.omega === omega ? SplitBorder.of(G, C, n, node, omega, opts.full) : null;
-  if (border) return { part, node, m, pencil: null, border, z: border.z };
+  // `opts.G`: G with the scales already applied, when the caller holds it
+  const Gn = opts.G ?? scaledG(sys, sourceStamps(sys), scale);
+  const own = sys.elements.filter((el) => el.part === part);
+  const gainOf = (el: Element) => (el.type === 'vccs' || el.type === 'vcvs' ? (scale[el.id] ?? 1) : 1);
+  // `opts.full`: the full network (same scales) factored at this frequency; then only the border
+  // of the split matrix (row and column X′) is needed (splitBorder.ts)
+  if (opts.full && !opts.full.singular && opts.full.omega === omega) {
+    const bd = { gb: new Float64Array(n), gc: new Float64Array(n), cb: new Float64Array(n), cc: new Float64Array(n), gd: 0, cd: 0 };
+    const add = (isC: boolean, i: number, j: number, val: number) => {
+      if (i < 0 || j < 0) return;
+      if (i === n && j === n) { if (isC) bd.cd += val; else bd.gd += val; } else if (j === n) (isC ? bd.cb : bd.gb)[i] += val;
+      else if (i === n) (isC ? bd.cc : bd.gc)[j] += val;
+    };
+    let moved = false;
+    for (const el of own) moved = moveElement(add, (i, j) => Gn[i * n + j], sys.nodeCount, el, node, n, gainOf(el)) || moved;
+    if (!moved) return null;
+    const border = SplitBorder.of(bd, n, node, omega, opts.full);
+    if (border) return { part, node, m, pencil: null, border, z: border.z };
+  }
+  const G = embed(Gn, n, m);
+  const C = embed(sys.C, n, m);
+  const add = (isC: boolean, i: number, j: number, val: number) => { if (i >= 0 && j >= 0) (isC ? C : G)[i * m + j] += val; };
+  let moved = false;
+  for (const el of own) moved = moveElement(add, (i, j) => G[i * m + j], sys.nodeCount, el, node, n, gainOf(el)) || moved;
+  if (!moved) return null;
   const pencil = new PencilAt(G, C, m, omega);
   if (pencil.singular) return null;
   const e = new Float64Array(m);
@@ -110,25 +122,27 @@ function embed(A: Float64Array, n: number, m: number): Float64Array {
   return out;
 }
 
-/** Move the element's connections at `node` to `to` (in place); false when it has none there.
- *  Two-terminal and VCCS stamps are taken out and put back with the new index (value × k for a
- *  scaled source); a branch element's row and column entries move as they are. */
-function moveElement(G: Float64Array, C: Float64Array, m: number, nodeCount: number, el: Element, node: number, to: number, k: number): boolean {
+/** Move the element's connections at `node` to `to` (through `add`, on G or C); false when it has
+ *  none there. Two-terminal and VCCS stamps are taken out and put back with the new index (value × k
+ *  for a scaled source); a branch element's row and column entries (read with `getG`) move as they are. */
+type AddEntry = (isC: boolean, i: number, j: number, val: number) => void;
+
+function moveElement(add: AddEntry, getG: (i: number, j: number) => number, nodeCount: number, el: Element, node: number, to: number, k: number): boolean {
   const map = (v: number) => (v === node ? to : v);
   switch (el.type) {
     case 'conductance':
     case 'capacitance': {
       if (el.a !== node && el.b !== node) return false;
-      const M = el.type === 'conductance' ? G : C;
+      const isC = el.type === 'capacitance';
       const val = el.type === 'conductance' ? el.g : el.c;
-      stampTwoTerminal(M, m, el.a, el.b, -val);
-      stampTwoTerminal(M, m, map(el.a), map(el.b), val);
+      stampTwoTerminal(add, isC, el.a, el.b, -val);
+      stampTwoTerminal(add, isC, map(el.a), map(el.b), val);
       return true;
     }
     case 'vccs': {
       if (el.p !== node && el.n !== node && el.cp !== node && el.cn !== node) return false;
-      stampVccs(G, m, el.p, el.n, el.cp, el.cn, -el.gm * k);
-      stampVccs(G, m, map(el.p), map(el.n), map(el.cp), map(el.cn), el.gm * k);
+      stampVccs(add, el.p, el.n, el.cp, el.cn, -el.gm * k);
+      stampVccs(add, map(el.p), map(el.n), map(el.cp), map(el.cn), el.gm * k);
       return true;
     }
     case 'vcvs':
@@ -137,8 +151,9 @@ function moveElement(G: Float64Array, C: Float64Array, m: number, nodeCount: num
       const pins = el.type === 'vcvs' ? [el.p, el.n, el.cp, el.cn] : el.type === 'vsource' ? [el.p, el.n] : [el.a, el.b];
       if (!pins.includes(node)) return false;
       const r = nodeCount + el.branch;
-      G[r * m + to] += G[r * m + node]; G[r * m + node] = 0;
-      G[to * m + r] += G[node * m + r]; G[node * m + r] = 0;
+      const row = getG(r, node), col = getG(node, r);
+      add(false, r, to, row); add(false, r, node, -row);
+      add(false, to, r, col); add(false, node, r, -col);
       return true;
     }
     default:
@@ -146,14 +161,10 @@ function moveElement(G: Float64Array, C: Float64Array, m: number, nodeCount: num
   }
 }
 
-function addAt(M: Float64Array, m: number, i: number, j: number, val: number): void {
-  if (i >= 0 && j >= 0) M[i * m + j] += val;
+function stampTwoTerminal(add: AddEntry, isC: boolean, a: number, b: number, val: number): void {
+  add(isC, a, a, val); add(isC, b, b, val); add(isC, a, b, -val); add(isC, b, a, -val);
 }
 
-function stampTwoTerminal(M: Float64Array, m: number, a: number, b: number, val: number): void {
-  addAt(M, m, a, a, val); addAt(M, m, b, b, val); addAt(M, m, a, b, -val); addAt(M, m, b, a, -val);
-}
-
-function stampVccs(G: Float64Array, m: number, p: number, q: number, cp: number, cn: number, gm: number): void {
-  addAt(G, m, p, cp, gm); addAt(G, m, p, cn, -gm); addAt(G, m, q, cp, -gm); addAt(G, m, q, cn, gm);
+function stampVccs(add: AddEntry, p: number, q: number, cp: number, cn: number, gm: number): void {
+  add(false, p, cp, gm); add(false, p, cn, -gm); add(false, q, cp, -gm); add(false, q, cn, gm);
 }

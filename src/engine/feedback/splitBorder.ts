@@ -11,6 +11,8 @@
 import type { Cx } from '../types';
 import type { CVec, PencilAt, SourceStamp } from './pencil';
 
+export interface BorderEntries { gb: Float64Array; cb: Float64Array; gc: Float64Array; cc: Float64Array; gd: number; cd: number }
+
 /** Relative size below which a pivot of the bordered update is not trusted (common practice). */
 const TRUST = 1e-10;
 
@@ -29,15 +31,15 @@ export class SplitBorder {
     private readonly aInvB: CVec, readonly z: Cx,
   ) {}
 
-  /** `Gs`, `Cs`: the split network's m × m matrices (m = n + 1, X′ last); null when not trusted. */
-  static of(Gs: Float64Array, Cs: Float64Array, n: number, node: number, omega: number, full: PencilAt): SplitBorder | null {
-    const m = n + 1;
+  /** `bd`: the split network's border, column X′ (gb, cb) and row X′ (gc, cc) of G and C over the
+   *  first n unknowns, and the corner (gd, cd); null when not trusted. */
+  static of(bd: BorderEntries, n: number, node: number, omega: number, full: PencilAt): SplitBorder | null {
     const bRe = new Float64Array(n), bIm = new Float64Array(n), cRe = new Float64Array(n), cIm = new Float64Array(n);
     for (let i = 0; i < n; i++) {
-      bRe[i] = Gs[i * m + n]; bIm[i] = omega * Cs[i * m + n];
-      cRe[i] = Gs[n * m + i]; cIm[i] = omega * Cs[n * m + i];
+      bRe[i] = bd.gb[i]; bIm[i] = omega * bd.cb[i];
+      cRe[i] = bd.gc[i]; cIm[i] = omega * bd.cc[i];
     }
-    const d = { re: Gs[n * m + n], im: omega * Cs[n * m + n] };
+    const d = { re: bd.gd, im: omega * bd.cd };
     const y1 = full.solve(bRe, bIm);
     const ex = new Float64Array(n);
     ex[node] = 1;
