@@ -38,6 +38,17 @@ const LitWire = memo(function LitWire({ wire, k }: { wire: WireRecord; k: number
   );
 });
 
+// Memoised on plain numbers: a re-render with the same ring (new dash array) draws nothing.
+const SlowestRing = memo(function SlowestRing({ x, y, k }: { x: number; y: number; k: number }) {
+  return (
+    <Group x={x} y={y} listening={false}>
+      <Circle radius={9 * k} stroke="#ffffff" strokeWidth={5 * k} perfectDrawEnabled={false} />
+      <Circle radius={9 * k} stroke={INK} strokeWidth={2.5 * k} perfectDrawEnabled={false} />
+      <Circle radius={14 * k} stroke={INK} strokeWidth={1.2 * k} dash={[3 * k, 2 * k]} perfectDrawEnabled={false} />
+    </Group>
+  );
+});
+
 function AnalysisWireLayerView({ doc, ann, netOfWire, lit, scale }: Props) {
   if (!ann) return null;
   const k = 1 / Math.max(scale, 0.3);
@@ -49,14 +60,8 @@ function AnalysisWireLayerView({ doc, ann, netOfWire, lit, scale }: Props) {
         const mark = ann.nets[netOfWire.get(w.id) ?? ''];
         return mark ? <MarkedWire key={w.id} wire={w} color={mark.color} /> : null;
       })}
-      {ann.slowest && (
-        <Group x={ann.slowest.anchor.x} y={ann.slowest.anchor.y} listening={false}>
-          <Circle radius={9 * k} stroke="#ffffff" strokeWidth={5 * k} perfectDrawEnabled={false} />
-          <Circle radius={9 * k} stroke={INK} strokeWidth={2.5 * k} perfectDrawEnabled={false} />
-          <Circle radius={14 * k} stroke={INK} strokeWidth={1.2 * k} dash={[3 * k, 2 * k]} perfectDrawEnabled={false} />
-        </Group>
-      )}
-      {ann.loop && <LoopPathView points={ann.loop.points} k={k} />}
+      {ann.slowest && <SlowestRing x={ann.slowest.anchor.x} y={ann.slowest.anchor.y} k={k} />}
+      {ann.loop && <LoopPath points={ann.loop.points} k={k} />}
     </Layer>
   );
 }
@@ -83,5 +88,7 @@ function LoopPathView({ points, k }: { points: { x: number; y: number }[]; k: nu
     </Group>
   );
 }
+
+const LoopPath = memo(LoopPathView);
 
 export const AnalysisWireLayer = memo(AnalysisWireLayerView);

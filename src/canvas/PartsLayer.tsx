@@ -1,5 +1,6 @@
 // Parts and wires of the document. Records are immutable (immer), so memoised views redraw only
 // the records that changed, and the selection changes only the colour prop of the items it touches.
+// The wires and the parts are drawn on separate layers, the parts on a few (see PARTS_PER_LAYER).
 import { memo } from 'react';
 import { Layer, Line } from 'react-konva';
 import type { DrawingDocument, ItemId, PartRecord, WireRecord } from '../schematic/document';
@@ -39,14 +40,38 @@ interface Props {
   hover: HitTarget;
 }
 
+type ItemState = 'plain' | 'hover' | 'selected';
+
+/** Parts per Konva layer. Konva redraws a whole layer when one of its shapes changes, so the
+ *  parts are spread over a few layers (each its own canvas): a value edit or a selection redraws
+ *  the layer holding that part only, not all the symbols and their texts. */
+export const PARTS_PER_LAYER = 40;
+const MAX_PART_LAYERS = 8;
+
+const sameItems = <T,>(a: { items: T[]; states: ItemState[] }, b: { items: T[]; states: ItemState[] }) =>
+  a.items.length === b.items.length && a.items.every((x, i) => x === b.items[i] && a.states[i] === b.states[i]);
+
+const PartChunk = memo(function PartChunk({ items, states }: { items: PartRecord[]; states: ItemState[] }) {
+  return <Layer listening={false}>{items.map((p, i) => <PartView key={p.id} part={p} state={states[i]} />)}</Layer>;
+}, sameItems);
+
+const WireChunk = memo(function WireChunk({ items, states }: { items: WireRecord[]; states: ItemState[] }) {
+  return <Layer listening={false}>{items.map((w, i) => <WireView key={w.id} wire={w} state={states[i]} />)}</Layer>;
+}, sameItems);
+
 function PartsLayerView({ doc, selection, hover }: Props) {
   const hoverId = hover.type === 'part' || hover.type === 'pin' ? hover.part : hover.type === 'wire' ? hover.wire : null;
-  const stateOf = (id: ItemId) => (selection.has(id) ? 'selected' : id === hoverId ? 'hover' : 'plain');
+  const stateOf = (id: ItemId): ItemState => (selection.has(id) ? 'selected' : id === hoverId ? 'hover' : 'plain');
+  const wires = Object.values(doc.wires);
+  const parts = Object.values(doc.parts).sort((a, b) => (a.id < b.id ? -1 : a.id > b.id ? 1 : 0));
+  const size = Math.max(PARTS_PER_LAYER, Math.ceil(parts.length / MAX_PART_LAYERS));
+  const chunks: PartRecord[][] = [];
+  for (let i = 0; i < parts.length; i += size) chunks.push(parts.slice(i, i + size));
   return (
-    <Layer listening={false}>
-      {Object.values(doc.wires).map((w) => <WireView key={w.id} wire={w} state={stateOf(w.id)} />)}
-      {Object.values(doc.parts).map((p) => <PartView key={p.id} part={p} state={stateOf(p.id)} />)}
-    </Layer>
+    <>
+      <WireChunk items={wires} states={wires.map((w) => stateOf(w.id))} />
+      {chunks.map((c, k) => <PartChunk key={k} items={c} states={c.map((p) => stateOf(p.id))} />)}
+    </>
   );
 }
 

@@ -22,5 +22,8 @@ export function perfDuration(name: string, ms: number | undefined): void {
   perfMeasure(name, end - ms, end);
 }
 
+/** A time of another thread (performance.timeOrigin + now() there) on this thread's clock. */
+export const fromEpoch = (t: number): number => t - (perf?.timeOrigin ?? 0);
+
 /** When the newest stage-1 result arrived on this thread (for the render measure). */
 export const arrivals = { stage1: 0 };

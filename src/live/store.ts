@@ -7,7 +7,7 @@ import { createAnalysisRunner } from '../worker/runner';
 import { computeLoopDetail } from '../worker/loopDetail';
 import type { AnalysisRunner, LoopDetailRequest, WorkerMessage } from '../worker/protocol';
 import { drawingIssues, engineIssues } from './issues';
-import { arrivals, perfDuration, perfMeasure, perfNow } from './perfMarks';
+import { arrivals, fromEpoch, perfDuration, perfMeasure, perfNow } from './perfMarks';
 import { DEFAULT_SETTINGS, type LiveSettings, type LiveState, type LiveStore, type LoopEntry } from './types';
 
 export interface LiveStoreOptions {
@@ -89,6 +89,11 @@ export function createLiveStore(opts: LiveStoreOptions = {}): LiveStore {
       arrivals.stage1 = t0;
       perfDuration('engine-stage1', m.ms);
       perfMeasure('wait-stage1', submittedAt, t0);
+      if (m.at) {
+        // request in flight to the worker / result in flight back (incl. a busy page thread)
+        perfMeasure('to-worker', submittedAt, fromEpoch(m.at.received));
+        perfMeasure('from-worker', fromEpoch(m.at.posted), t0);
+      }
       const placed = engineIssues(m.result.issues, doc, drawing);
       set({
         stage: 1, result: m.result, feedback: null, blackman: {},

@@ -27,9 +27,13 @@ export interface RunRequest {
 
 export type WorkerRequest = RunRequest | LoopDetailRequest;
 
-/** `ms`: compute time of the stage inside the worker (for the performance marks). */
+/** `ms`: compute time of the stage inside the worker; `at`: when the worker got the request and
+ *  when it posted this answer (performance.timeOrigin + now(), ms: comparable across threads).
+ *  Both only feed the performance marks. */
+export interface StageTimes { received: number; posted: number }
+
 export type RunMessage =
-  | { runId: number; stage: 1; result: AnalysisResult; ms?: number }
+  | { runId: number; stage: 1; result: AnalysisResult; ms?: number; at?: StageTimes }
   /** The whole analyze() result of the run (stage 1's figures unchanged, the rest added). */
   | { runId: number; stage: 'complete'; result: AnalysisResult; ms?: number }
   | { runId: number; stage: 2; feedback: FeedbackResult; blackman: Record<string, BlackmanResult>; ms?: number }

@@ -15,11 +15,13 @@ export interface Scheduler {
 
 const errText = (e: unknown) => (e instanceof Error ? e.message : String(e));
 const clock = () => (typeof performance !== 'undefined' ? performance.now() : Date.now());
+const epoch = () => (typeof performance !== 'undefined' && performance.timeOrigin ? performance.timeOrigin + performance.now() : Date.now());
 
 type Later = { req: RunRequest; next: 'complete' | 'feedback'; complete: () => AnalysisResult };
 
 export function createScheduler(post: (msg: WorkerMessage) => void, yieldNow: (fn: () => void) => void = (fn) => setTimeout(fn, 0)): Scheduler {
   let pending: RunRequest | null = null;
+  let pendingAt = 0;
   let later: Later | null = null;
   let detail: LoopDetailRequest | null = null;
   let busy = false;
@@ -33,8 +35,9 @@ export function createScheduler(post: (msg: WorkerMessage) => void, yieldNow: (f
 
   const stage1 = (req: RunRequest) => {
     try {
+      const received = pendingAt;
       const [staged, ms] = timed(() => runOverlayStage(req));
-      post({ runId: req.runId, stage: 1, result: staged.first, ms });
+      post({ runId: req.runId, stage: 1, result: staged.first, ms, at: { received, posted: epoch() } });
       later = staged.first.ok ? { req, next: 'complete', complete: staged.complete } : null;
     } catch (e) {
       post({ runId: req.runId, stage: 'failed', message: `analysis: ${errText(e)}` });
@@ -92,6 +95,7 @@ export function createScheduler(post: (msg: WorkerMessage) => void, yieldNow: (f
       else {
         if (pending) post({ runId: pending.runId, stage: 'dropped' });
         pending = req;
+        pendingAt = epoch();
       }
       if (!busy) { busy = true; yieldNow(step); }
     },

@@ -45,7 +45,7 @@ function chainNetlist(stages: number) {
   };
 }
 
-interface Stamp { t0: number; t1: number; t2: number; snap: string; measures: { name: string; start: number; ms: number }[]; longTasks: { start: number; ms: number }[] }
+interface Stamp { draws0: { fillText: number; stroke: number }; draws: { fillText: number; stroke: number }; t0: number; t1: number; t2: number; snap: string; measures: { name: string; start: number; ms: number }[]; longTasks: { start: number; ms: number }[] }
 
 const med = (v: number[]) => { const s = [...v].sort((a, b) => a - b); return s.length ? s[Math.floor(s.length / 2)] : NaN; };
 const fmt = (v: number) => (Number.isFinite(v) ? v.toFixed(1) : '—');
@@ -64,6 +64,12 @@ async function main() {
   try {
     // tsx keeps function names with a helper the page lacks; the flag turns on the app's ps: measures
     await page.addInitScript('window.__name = (f) => f; window.POLESKETCH_PERF = true;');
+    // count the canvas text and stroke calls (how much of the drawing is redrawn per edit)
+    await page.addInitScript(`(() => {
+      const c = window.__draws = { fillText: 0, stroke: 0 };
+      const P = CanvasRenderingContext2D.prototype;
+      for (const k of ['fillText', 'stroke']) { const f = P[k]; P[k] = function (...a) { c[k]++; return f.apply(this, a); }; }
+    })()`);
     await page.goto(served.url);
     await page.waitForSelector('canvas', { timeout: 20000 });
     await page.setInputFiles('[data-testid="file-input"]', { name: 'bench.json', mimeType: 'application/json', buffer: Buffer.from(saveDrawing(doc)) });
@@ -91,7 +97,8 @@ async function main() {
         if (!root) return '';
         return Array.from(root.querySelectorAll('.ao-badge, .ao-dot')).map((e) => (e as HTMLElement).innerText + '|' + (e.getAttribute('title') ?? '')).join('\n');
       };
-      w.__bench = { t0: 0, t1: 0, t2: 0, snap: snap(), measures: [], longTasks: [] };
+      const draws = (w as unknown as { __draws: { fillText: number; stroke: number } }).__draws;
+      w.__bench = { t0: 0, t1: 0, t2: 0, snap: snap(), measures: [], longTasks: [], draws0: { ...draws }, draws: { ...draws } };
       // main-thread tasks over 50 ms (Long Tasks API): where the page could not answer input
       const long: { start: number; ms: number }[] = [];
       try {
@@ -100,7 +107,7 @@ async function main() {
       (w as unknown as { __long: typeof long }).__long = long;
       window.addEventListener('click', () => {
         performance.clearMeasures();
-        w.__bench.t0 = performance.now(); w.__bench.t1 = 0; w.__bench.t2 = 0; w.__bench.snap = snap();
+        w.__bench.t0 = performance.now(); w.__bench.t1 = 0; w.__bench.t2 = 0; w.__bench.snap = snap(); w.__bench.draws0 = { ...draws };
       }, true);
       new MutationObserver(() => {
         const b = w.__bench;
@@ -110,6 +117,7 @@ async function main() {
           b.t1 = performance.now();
           requestAnimationFrame(() => {
             b.t2 = performance.now();
+            b.draws = { ...draws };
             b.measures = performance.getEntriesByType('measure').filter((m) => m.name.startsWith('ps:')).map((m) => ({ name: m.name, start: m.startTime - b.t0, ms: m.duration }));
             b.longTasks = (w as unknown as { __long: { start: number; ms: number }[] }).__long.filter((t) => t.start + t.ms >= b.t0 && t.start <= b.t2).map((t) => ({ start: t.start - b.t0, ms: t.ms }));
           });
@@ -127,6 +135,7 @@ async function main() {
     const split = new Map<string, number[]>();
     const offsets = new Map<string, number[]>();
     const longSum: number[] = [];
+    const texts: number[] = [], strokes: number[] = [];
     for (let i = 0; i < EDITS; i++) {
       await page.getByRole('button', { name: i % 2 === 0 ? 'Undo' : 'Redo', exact: true }).click();
       try {
@@ -147,24 +156,27 @@ async function main() {
       }
       for (const [name, ms] of sums) split.set(name, [...(split.get(name) ?? []), ms]);
       longSum.push(t.longTasks.reduce((s2, x) => s2 + x.ms, 0));
+      texts.push(t.draws.fillText - t.draws0.fillText);
+      strokes.push(t.draws.stroke - t.draws0.stroke);
       // the feedback stage must not overlap the next click's clock
       await page.waitForFunction(() => !document.querySelector('.ao-busy'), undefined, { timeout: 60000 });
     }
-    // a look by eye at the overlay after the edits (zoomed in to a readable size)
-    for (let i = 0; i < 4; i++) await page.locator('.sheet-zoom').getByTitle('Zoom in').click();
-    await page.waitForTimeout(300);
-    await page.screenshot({ path: artifactPath('bench-overlay.png') });
     if (cdp) {
       const prof = (await cdp.send('Profiler.stop')).profile as CpuProfile;
       printProfile(prof);
       if (process.env.BENCH_PROFILE_OUT) writeFileSync(process.env.BENCH_PROFILE_OUT, JSON.stringify(prof));
     }
+    // a look by eye at the overlay after the edits (zoomed in to a readable size)
+    for (let i = 0; i < 4; i++) await page.locator('.sheet-zoom').getByTitle('Zoom in').click();
+    await page.waitForTimeout(300);
+    await page.screenshot({ path: artifactPath('bench-overlay.png') });
     console.log(`edit → overlay DOM updated: median ${fmt(med(toOverlay))} ms (min ${fmt(Math.min(...toOverlay))}, max ${fmt(Math.max(...toOverlay))}) over ${EDITS} undo/redo clicks`);
     console.log(`edit → frame showing it:   median ${fmt(med(toFrame))} ms (min ${fmt(Math.min(...toFrame))}, max ${fmt(Math.max(...toFrame))}); ratio to one 60 Hz frame ${(med(toFrame) / (1000 / 60)).toFixed(1)}×`);
     if (split.size === 0) console.log('(no ps: performance measures recorded by this build)');
     for (const [name, v] of [...split].sort()) {
       console.log(`  ${name.padEnd(20)} median ${fmt(med(v))} ms (min ${fmt(Math.min(...v))}, max ${fmt(Math.max(...v))}, ${v.length} edits); starts ${fmt(med(offsets.get(name) ?? []))} ms after the click`);
     }
+    console.log(`  canvas calls per edit (click → frame): fillText median ${med(texts)}, stroke median ${med(strokes)}`);
     console.log(`  main-thread long tasks (> 50 ms) per edit: median ${fmt(med(longSum))} ms (max ${fmt(Math.max(...longSum))})`);
   } finally {
     await browser.close();
