@@ -8,7 +8,7 @@
 // for negative feedback). Had the other sources been left in, each edge would already contain the
 // paths through third sources and cycle products would count them twice.
 import type { MnaSystem } from '../types';
-import { PencilAt, addRankOne, controlIsGround, controlOf, scaledG, sourceStamps } from './pencil';
+import { PencilAt, addRankOne, controlIsGround, scaledG, sourceStamps } from './pencil';
 import type { SourceStamp } from './pencil';
 import { scaleStamp } from './returnRatio';
 
@@ -56,6 +56,7 @@ export function couplingGraph(sys: MnaSystem, opts: CouplingOptions = {}): Coupl
   const gminAtHz: number[] = [];
   // unit-control excitations −u, kept sparse (a source's u has one or two entries)
   const negVals = stamps.map((s) => s.uVals.map((x) => -x));
+  const work = { re: new Float64Array(n), im: new Float64Array(n) };
   for (const f of fHz) {
     const omega = 2 * Math.PI * f;
     let pencil = new PencilAt(Gcut, sys.C, n, omega);
@@ -68,14 +69,23 @@ export function couplingGraph(sys: MnaSystem, opts: CouplingOptions = {}): Coupl
     const dRe = new Float64Array(N * N);
     const dIm = new Float64Array(N * N);
     for (let i = 0; i < N; i++) {
-      const x = pencil.solveSparse(stamps[i].uRows, negVals[i]);
+      const x = pencil.solveSparse(stamps[i].uRows, negVals[i], work);
       for (let j = 0; j < N; j++) {
-        const c = controlOf(stamps[j], x);
-        dRe[i * N + j] = c.re;
-        dIm[i * N + j] = c.im;
-        const mag = Math.hypot(c.re, c.im);
-        if (mag > peak[i * N + j]) peak[i * N + j] = mag;
-        if (outNode[i * N + j] < 0 && mag > 0) {
+        // the control v(cp) − v(cn) (as controlOf)
+        let cr = 0, ci = 0;
+        const cp = stamps[j].cp, cn = stamps[j].cn;
+        if (cp >= 0) { cr += x.re[cp]; ci += x.im[cp]; }
+        if (cn >= 0) { cr -= x.re[cn]; ci -= x.im[cn]; }
+        const k = i * N + j;
+        dRe[k] = cr;
+        dIm[k] = ci;
+        // |d| only where it may raise the peak or the edge's nodes are still to be noted (a squared
+        // magnitude well below the peak's cannot)
+        const pk = peak[k];
+        if (cr * cr + ci * ci < pk * pk * 0.999999 && outNode[k] >= 0) continue;
+        const mag = Math.hypot(cr, ci);
+        if (mag > peak[k]) peak[k] = mag;
+        if (outNode[k] < 0 && mag > 0) {
           // a pin shared by i's output and j's control is where the signal passes; else the largest
           const outs = [stamps[i].p, stamps[i].n];
           const ctls = [stamps[j].cp, stamps[j].cn];

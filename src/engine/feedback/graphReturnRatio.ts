@@ -21,6 +21,7 @@ export function returnRatiosFromGraph(
   const idx = ids.map((id) => g.stamps.findIndex((s) => s.id === id));
   const points: (ReturnRatioPoint | null)[][] = ids.map(() => new Array<ReturnRatioPoint | null>(F).fill(null));
   const missing = new Set<number>();
+  const work = { re: new Float64Array(N), im: new Float64Array(N) };
   for (let fi = 0; fi < F; fi++) {
     if (g.gminAtHz.includes(g.fHz[fi])) { missing.add(fi); continue; }
     const Ar = new Float64Array(N * N);
@@ -38,7 +39,7 @@ export function returnRatiosFromGraph(
     if ((real?.singularAt ?? cplx!.singularAt) >= 0) { missing.add(fi); continue; }
     idx.forEach((k, a) => {
       if (k < 0) return;
-      const { re: xr, im: xi } = inverseDiagonal(real, cplx, N, k);
+      const { re: xr, im: xi } = inverseDiagonal(real, cplx, N, k, work);
       const d = xr * xr + xi * xi;
       // x = 1/(1 + T) ≈ 0: the network with k removed is singular, T unbounded (as returnRatio.ts)
       if (!(d > 1e-24)) { points[a][fi] = { value: null, status: 'infinite' }; return; }
@@ -68,9 +69,9 @@ export function returnRatiosFromGraph(
 
 /** [A⁻¹]_kk from A's LU (real or complex): solve A·y = e_k, forward substitution from the row that
  *  e_k lands on after the row permutation. */
-function inverseDiagonal(real: RealLU | null, cplx: ComplexLU | null, n: number, k: number): { re: number; im: number } {
+function inverseDiagonal(real: RealLU | null, cplx: ComplexLU | null, n: number, k: number, work: { re: Float64Array; im: Float64Array }): { re: number; im: number } {
   const perm = real ? real.perm : cplx!.perm;
-  const yr = new Float64Array(n), yi = new Float64Array(n);
+  const yr = work.re.fill(0), yi = work.im.fill(0);
   const first = perm.indexOf(k);
   yr[first] = 1;
   const Lr = real ? real.lu : cplx!.re;

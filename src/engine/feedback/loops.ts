@@ -130,7 +130,8 @@ export function discoverLoops(sys: MnaSystem, opts: LoopOptions = {}): LoopDisco
     return a - b;
   };
   // one source stands for each part: the preferred one among those the loop runs through
-  const repsOf = (c: PartCycle) => c.sources.map((list) => [...list].sort(byPreference)[0]);
+  const reps = new Map<PartCycle, number[]>();
+  const repsOf = (c: PartCycle) => reps.get(c) ?? reps.set(c, c.sources.map((list) => [...list].sort(byPreference)[0])).get(c)!;
   const keyPos = (c: PartCycle) => { const r = repsOf(c); return r.indexOf([...r].sort(byPreference)[0]); };
   const keys = [...new Set(kept.map((c) => graph.stamps[repsOf(c)[keyPos(c)]].id))];
   const rr = new Map(returnRatiosFromGraph(sys, graph, keys, opts.scale).map((r) => [r.id, r]));

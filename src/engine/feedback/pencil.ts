@@ -145,10 +145,11 @@ export class PencilAt {
 
   /** Solves M x = b for a real b with few non-zeros (a source's u vector): forward substitution
    *  starts at the first row the permuted b reaches, since L's rows above it only carry zeros. */
-  solveSparse(rows: number[], vals: number[]): CVec {
+  solveSparse(rows: number[], vals: number[], out?: CVec): CVec {
     const n = this.n;
-    const xr = new Float64Array(n);
-    const xi = new Float64Array(n);
+    // `out`: the caller's buffers, overwritten (for many solves in a row)
+    const xr = out ? out.re.fill(0) : new Float64Array(n);
+    const xi = out ? out.im.fill(0) : new Float64Array(n);
     const perm = this.real ? this.real.perm : this.cplx!.perm;
     let first = n;
     for (let i = 0; i < n; i++) {
