@@ -168,19 +168,26 @@ function scaleSystem(sys: MnaSystem, scale: Record<string, number>): MnaSystem {
   return { ...sys, G, elements };
 }
 
-/** Replace non-finite numbers by null so the result is JSON-safe (no NaN / Infinity). */
+/** Replace non-finite numbers by null (typed arrays by plain arrays) so the result is JSON-safe (no
+ *  NaN / Infinity). In place, each object once: every object of the result is this call's own. */
 function jsonSafe<T>(v: T): T {
-  const walk = (x: unknown): unknown => {
+  const seen = new Set<object>();
+  const fix = (x: unknown): unknown => {
     if (typeof x === 'number') return Number.isFinite(x) ? x : null;
-    if (Array.isArray(x)) return x.map(walk);
     if (x instanceof Float64Array || x instanceof Int32Array) return Array.from(x as ArrayLike<number>, (y) => (Number.isFinite(y) ? y : null));
-    if (x && typeof x === 'object') {
-      const o: Record<string, unknown> = {};
-      const src = x as Record<string, unknown>;
-      for (const k in src) if (Object.prototype.hasOwnProperty.call(src, k)) o[k] = walk(src[k]);
-      return o;
+    if (!x || typeof x !== 'object' || seen.has(x)) return x;
+    seen.add(x);
+    const o = x as Record<string, unknown>;
+    if (Array.isArray(o)) {
+      for (let i = 0; i < o.length; i++) if (needsFix(o[i])) o[i] = fix(o[i]);
+    } else {
+      for (const k in o) if (Object.prototype.hasOwnProperty.call(o, k) && needsFix(o[k])) o[k] = fix(o[k]);
     }
     return x;
   };
-  return walk(v) as T;
+  return fix(v) as T;
+}
+
+function needsFix(y: unknown): boolean {
+  return typeof y === 'number' ? !Number.isFinite(y) : typeof y === 'object' && y !== null;
 }
