@@ -181,7 +181,8 @@ function jsonSafe<T>(v: T): T {
     if (Array.isArray(o)) {
       for (let i = 0; i < o.length; i++) if (needsFix(o[i])) o[i] = fix(o[i]);
     } else {
-      for (const k in o) if (Object.prototype.hasOwnProperty.call(o, k) && needsFix(o[k])) o[k] = fix(o[k]);
+      const keys = Object.keys(o);
+      for (let i = 0; i < keys.length; i++) { const k = keys[i]; if (needsFix(o[k])) o[k] = fix(o[k]); }
     }
     return x;
   };

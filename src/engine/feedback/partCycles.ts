@@ -86,7 +86,7 @@ export function findPartCycles(
   const F = fz.length;
   // (its largest value over frequency per edge gives a coarser bound first: the largest product over
   // frequency is at most the product of the edges' largest values)
-  const edgeNorm = new Map<number, Float64Array>();
+  const edgeNorm: (Float64Array | undefined)[] = new Array(P * P);
   const edgeMax = new Float64Array(P * P);
   const hNorm = cl.h.map((row) => row.map(frobenius));
   for (let a = 0; a < P; a++) {
@@ -97,25 +97,27 @@ export function findPartCycles(
         v[fi] = blockNorm(g, fi, pg.sourcesOf[a], pg.sourcesOf[b]) * hNorm[fi][b];
         if (v[fi] > mx) mx = v[fi];
       }
-      edgeNorm.set(a * P + b, v);
+      edgeNorm[a * P + b] = v;
       edgeMax[a * P + b] = mx;
     }
   }
   const size = pg.sourcesOf.map((list) => list.length);
-  const prod = new Float64Array(F);
+  const edges: Float64Array[] = [];
   const bound = (cyc: number[]) => {
     let m = Infinity;
     for (const p of cyc) if (size[p] < m) m = size[p];
     let coarse = 1;
     for (let k = 0; k < cyc.length; k++) coarse *= edgeMax[cyc[k] * P + cyc[(k + 1) % cyc.length]];
     if (!(Math.pow(1 + coarse, m) - 1 > threshold)) return 0;
-    prod.fill(1);
-    for (let k = 0; k < cyc.length; k++) {
-      const v = edgeNorm.get(cyc[k] * P + cyc[(k + 1) % cyc.length])!;
-      for (let fi = 0; fi < F; fi++) prod[fi] *= v[fi];
-    }
+    edges.length = 0;
+    for (let k = 0; k < cyc.length; k++) edges.push(edgeNorm[cyc[k] * P + cyc[(k + 1) % cyc.length]]!);
+    // per frequency, the product along the cycle (edges in cycle order), and its largest value
     let b = 0;
-    for (let fi = 0; fi < F; fi++) if (prod[fi] > b) b = prod[fi];
+    for (let fi = 0; fi < F; fi++) {
+      let prod = 1;
+      for (let k = 0; k < edges.length; k++) prod *= edges[k][fi];
+      if (prod > b) b = prod;
+    }
     return Math.pow(1 + b, m) - 1;
   };
   const evaluator = new CycleEvaluator(g, pg, cl);
@@ -229,8 +231,12 @@ function frobenius(m: { re: Float64Array; im: Float64Array } | null): number {
 
 function blockNorm(g: CouplingGraph, fi: number, from: number[], to: number[]): number {
   const N = g.stamps.length;
+  const re = g.re[fi], im = g.im[fi];
   let s = 0;
-  for (const i of from) for (const j of to) { const r = g.re[fi][i * N + j], m = g.im[fi][i * N + j]; s += r * r + m * m; }
+  for (let a = 0; a < from.length; a++) {
+    const row = from[a] * N;
+    for (let b = 0; b < to.length; b++) { const r = re[row + to[b]], m = im[row + to[b]]; s += r * r + m * m; }
+  }
   return Math.sqrt(s);
 }
 
