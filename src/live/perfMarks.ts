@@ -25,5 +25,6 @@ export function perfDuration(name: string, ms: number | undefined): void {
 /** A time of another thread (performance.timeOrigin + now() there) on this thread's clock. */
 export const fromEpoch = (t: number): number => t - (perf?.timeOrigin ?? 0);
 
-/** When the newest stage-1 result arrived on this thread (for the render measure). */
-export const arrivals = { stage1: 0 };
+/** When the newest edit reached the store and its stage-1 result arrived on this thread (for the
+ *  render measures). */
+export const arrivals = { edit: 0, stage1: 0 };

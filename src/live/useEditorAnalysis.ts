@@ -40,8 +40,12 @@ export function useEditorAnalysis(editor: Editor, given?: LiveStore) {
   // the page is still drawing the edit (the effect above then finds it submitted).
   useEffect(() => editor.subscribe(() => {
     const d = editor.document;
-    if (store.getState().doc !== d) store.actions.submit(d, { drag: editor.state.mode === 'select.moving' });
+    if (store.getState().doc === d) return;
+    arrivals.edit = perfNow();
+    store.actions.submit(d, { drag: editor.state.mode === 'select.moving' });
   }), [editor, store]);
+  // edit handed to the store → the page committed its own render of the edit
+  useLayoutEffect(() => { if (arrivals.edit > 0) perfMeasure('render-edit', arrivals.edit); }, [doc]);
 
   const wires = useMemo(() => netOfWire(state.drawing), [state.drawing]);
   const hover = editor.state.hover;
