@@ -10,6 +10,7 @@
 // (e_XᵀM⁻¹u)(vᵀM⁻¹e_X)/(1 − a), a = vᵀM⁻¹u), two solves per key instead of two factors.
 import type { Cx, MnaSystem } from '../types';
 import { PencilAt, addRankOne, scaledG, sourceStamps, uVector, vVector } from './pencil';
+import type { SourceStamp } from './pencil';
 import { scaleStamp } from './returnRatio';
 import { cabs, cadd, cdiv, cmul, csub, cx } from './cx';
 
@@ -55,19 +56,21 @@ export function fullPencil(sys: MnaSystem, G: Float64Array, fHz: number): FullPe
 }
 
 export function blackmanAt(
-  sys: MnaSystem, key: string, opts: { fHz?: number; scale?: Record<string, number>; shared?: FullPencil } = {},
+  sys: MnaSystem, key: string,
+  opts: { fHz?: number; scale?: Record<string, number>; shared?: FullPencil; stamps?: SourceStamp[] } = {},
 ): BlackmanResult {
   const fHz = opts.fHz ?? 0;
   const n = sys.n;
-  const stamps = sourceStamps(sys);
+  // `opts.stamps`: sourceStamps(sys) when the caller holds them
+  const stamps = opts.stamps ?? sourceStamps(sys);
   const raw = stamps.find((s) => s.id === key);
   if (!raw) return { key, fHz, status: 'unknown-source', message: `no controlled source "${key}" in this network`, tOc: null, nodes: [] };
-  const G = scaledG(sys, stamps, opts.scale ?? {});
   const s = scaleStamp(raw, opts.scale?.[key]);
   if (opts.shared && opts.shared.fHz === fHz && !opts.shared.pencil.singular) {
     const r = viaShared(sys, key, s, opts.shared);
     if (r) return r;
   }
+  const G = scaledG(sys, stamps, opts.scale ?? {});
   const G0 = Float64Array.from(G);
   addRankOne(G0, n, s, -1);
   const omega = 2 * Math.PI * fHz;

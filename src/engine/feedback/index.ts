@@ -113,7 +113,8 @@ export function analyzeFeedbackSystem(sys: MnaSystem, opts: FeedbackOptions = {}
   const sweeps = [...new Map(d.loops.map((l) => [l.key, l.returnRatio])).values()];
   // one Hessenberg form of the network as analysed serves the margins' crossing searches and the
   // boosters' closed-loop bandwidth
-  const G = scaledG(sys, sourceStamps(sys), scale);
+  const stamps = sourceStamps(sys);
+  const G = scaledG(sys, stamps, scale);
   const reduced = ReducedPencil.of(G, sys.C, sys.n);
   const marginList = opts.freqsHz ? loopMarginsMany(sys, sweeps.map((x) => x.id), { scale }) : loopMarginsFromSweeps(sys, sweeps, { scale, reduced });
   const margins = new Map(marginList.map((m) => [m.key, m]));
@@ -123,7 +124,7 @@ export function analyzeFeedbackSystem(sys: MnaSystem, opts: FeedbackOptions = {}
   const loops: LoopReport[] = d.loops.map((loop) => {
     const { returnRatio: _sweep, ...rest } = loop;
     void _sweep;
-    return { loop: rest, regulation: loopRegulation(sys, loop, { scale, cache, pencils, splits, G }), margins: margins.get(loop.key)! };
+    return { loop: rest, regulation: loopRegulation(sys, loop, { scale, cache, pencils, splits, G, stamps }), margins: margins.get(loop.key)! };
   });
   const hasTransfer = sys.b.some((v) => v !== 0) && sys.c.some((v) => v !== 0);
   // one pole computation of the system as analysed serves doublets, sensitivity and step response

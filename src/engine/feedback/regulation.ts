@@ -10,6 +10,7 @@ import { portFactor, splitNetwork } from './portInto';
 import type { SplitNetwork } from './portInto';
 import { cabs } from './cx';
 import { scaledG, sourceStamps, nodeLabel } from './pencil';
+import type { SourceStamp } from './pencil';
 
 /** A factor must pass this (×1.5 or ÷1.5) before the loop is said to hold anything there. */
 export const SIGNIFICANT_FACTOR = 1.5;
@@ -46,7 +47,7 @@ export function loopRegulation(
   sys: MnaSystem, loop: Loop,
   opts: {
     scale?: Record<string, number>; fHz?: number; cache?: Map<string, BlackmanResult>; pencils?: Map<number, FullPencil>;
-    splits?: Map<string, SplitNetwork | null>; G?: Float64Array;
+    splits?: Map<string, SplitNetwork | null>; G?: Float64Array; stamps?: SourceStamp[];
   } = {},
 ): Regulation {
   const common = { ...opts, loopId: loop.id, preferNets: loop.nets, parts: loop.parts };
@@ -68,23 +69,25 @@ export function regulationOf(
     parts?: string[];
     /** Split networks by "part@node@f", shared across keys (filled as needed). */
     splits?: Map<string, SplitNetwork | null>;
-    /** G with `scale` applied, when the caller holds it (else formed here). */
+    /** G with `scale` applied, and sourceStamps(sys), when the caller holds them (else formed here). */
     G?: Float64Array;
+    stamps?: SourceStamp[];
   } = {},
 ): Regulation {
   const atHz = opts.fHz ?? 0;
+  const stamps = opts.stamps ?? sourceStamps(sys);
   // the factors depend only on the key and the frequency; loops sharing a key share them
   const memo = `${key}@${atHz}`;
   let shared = opts.pencils?.get(atHz);
   if (opts.pencils && !shared && !opts.cache?.has(memo)) {
-    shared = fullPencil(sys, opts.G ?? scaledG(sys, sourceStamps(sys), opts.scale ?? {}), atHz);
+    shared = fullPencil(sys, opts.G ?? scaledG(sys, stamps, opts.scale ?? {}), atHz);
     opts.pencils.set(atHz, shared);
   }
-  const b = opts.cache?.get(memo) ?? blackmanAt(sys, key, { fHz: atHz, scale: opts.scale, shared });
+  const b = opts.cache?.get(memo) ?? blackmanAt(sys, key, { fHz: atHz, scale: opts.scale, shared, stamps });
   opts.cache?.set(memo, b);
   const base = { loopId: opts.loopId ?? key, key, atHz, status: b.status, message: b.message, nodes: b.nodes };
   if (b.status !== 'ok') return { ...base, holdsVoltage: null, holdsCurrent: null, summary: b.message ?? '' };
-  const stamp = sourceStamps(sys).find((s) => s.id === key)!;
+  const stamp = stamps.find((s) => s.id === key)!;
   const sensed = [stamp.cp, stamp.cn].filter((v) => v >= 0).map((v) => nodeLabel(sys, v));
   const rank = (name: string) => (sensed.includes(name) ? 0 : opts.preferNets?.includes(name) ? 1 : 2);
   const usable = b.nodes.filter((x) => x.status === 'ok' && Number.isFinite(cabs(x.factor)) && cabs(x.factor) > 0);
@@ -106,7 +109,7 @@ export function regulationOf(
       holdsCurrent = { node: pick.node, factor: f, text: `holds the current into ${pick.node} — impedance × ${fmt(f)}` };
     }
   }
-  if (!holdsCurrent && opts.parts?.length) holdsCurrent = heldInto(sys, key, opts.parts, atHz, opts.scale, opts.splits ?? new Map(), opts.G, shared);
+  if (!holdsCurrent && opts.parts?.length) holdsCurrent = heldInto(sys, key, opts.parts, atHz, opts.scale, opts.splits ?? new Map(), opts.G, shared, stamps);
   const parts = [holdsVoltage?.text, holdsCurrent?.text].filter(Boolean);
   const where = atHz > 0 ? ` at ${fmt(atHz)} Hz` : ' at DC';
   const summary = parts.length
@@ -120,10 +123,9 @@ export function regulationOf(
  *  other parts share; null below SIGNIFICANT_FACTOR. */
 function heldInto(
   sys: MnaSystem, key: string, parts: string[], fHz: number, scale: Record<string, number> | undefined, splits: Map<string, SplitNetwork | null>,
-  G?: Float64Array, fullAt?: FullPencil,
+  G?: Float64Array, fullAt?: FullPencil, stamps: SourceStamp[] = sourceStamps(sys),
 ): HeldQuantity | null {
   let best: HeldQuantity | null = null;
-  const stamps = sourceStamps(sys);
   const Gs = G ?? scaledG(sys, stamps, scale ?? {});
   for (const part of parts) {
     const outs = new Set<number>();
