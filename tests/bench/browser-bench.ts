@@ -6,7 +6,7 @@
 // MutationObserver stamps the first change of the overlay's badge texts/titles, and the next
 // requestAnimationFrame stamps the frame that shows it. The app's own performance measures
 // ("ps:" names, src/live/perfMarks.ts) split each edit into netlist, worker, annotate and paint.
-import { writeFileSync } from 'node:fs';
+import { readFileSync, writeFileSync } from 'node:fs';
 import { netlistToDrawing } from '../../src/layout/importNetlist';
 import { nodeElk } from '../../src/layout/elkNode';
 import { saveDrawing } from '../../src/schematic/file';
@@ -19,6 +19,9 @@ const EDITS = Number(process.env.BENCH_EDITS ?? 16);
 /** BENCH_PROFILE=1: an unminified build and a CPU profile of the page's main thread over the
  *  edits (Chrome DevTools Protocol), summarised as the functions with the most self time. */
 const PROFILE = process.env.BENCH_PROFILE === '1';
+/** BENCH_TRACE=<file>: a Chromium performance trace of the edits (open it in the browser's
+ *  performance panel); the main thread's time per event kind is summarised. */
+const TRACE = process.env.BENCH_TRACE ?? '';
 
 /** Invented chain: 19 common-source stages, each loaded by R and followed by a two-section RC. */
 function chainNetlist(stages: number) {
@@ -131,6 +134,7 @@ async function main() {
       await cdp.send('Profiler.setSamplingInterval', { interval: 200 });
       await cdp.send('Profiler.start');
     }
+    if (TRACE) await browser.startTracing(page, { path: TRACE, categories: ['devtools.timeline', 'disabled-by-default-devtools.timeline', 'v8.execute', 'blink.user_timing'] });
     const toOverlay: number[] = [], toFrame: number[] = [];
     const split = new Map<string, number[]>();
     const offsets = new Map<string, number[]>();
@@ -161,6 +165,7 @@ async function main() {
       // the feedback stage must not overlap the next click's clock
       await page.waitForFunction(() => !document.querySelector('.ao-busy'), undefined, { timeout: 60000 });
     }
+    if (TRACE) { await browser.stopTracing(); printTrace(TRACE, EDITS); }
     if (cdp) {
       const prof = (await cdp.send('Profiler.stop')).profile as CpuProfile;
       printProfile(prof);
@@ -182,6 +187,18 @@ async function main() {
     await browser.close();
     await served.close();
   }
+}
+
+/** Main-thread (renderer) time per trace event name, per edit: complete events only, nested
+ *  events counted under their own names as well. */
+function printTrace(file: string, edits: number) {
+  const events = (JSON.parse(readFileSync(file, 'utf8')) as { traceEvents: { name: string; ph: string; dur?: number; tid: number; pid: number; args?: { name?: string } }[] }).traceEvents;
+  const main = events.find((e) => e.name === 'thread_name' && e.args?.name === 'CrRendererMain');
+  if (!main) { console.log('trace: no renderer main thread found'); return; }
+  const sums = new Map<string, number>();
+  for (const e of events) if (e.ph === 'X' && e.tid === main.tid && e.pid === main.pid && e.dur) sums.set(e.name, (sums.get(e.name) ?? 0) + e.dur / 1000);
+  console.log(`trace ${file}: renderer main thread, ms per edit by event kind`);
+  for (const [n, ms] of [...sums].sort((a, b) => b[1] - a[1]).slice(0, 18)) console.log(`  ${(ms / edits).toFixed(1).padStart(7)}  ${n}`);
 }
 
 interface CpuProfile { nodes: { id: number; callFrame: { functionName: string; url: string; lineNumber: number } }[]; samples: number[]; timeDeltas: number[] }
