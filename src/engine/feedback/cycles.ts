@@ -138,18 +138,23 @@ export function elementaryCycles(count: number, adj: number[][], maxCycles = 100
 /** Every elementary cycle of at most `maxLen` vertices (no self-loops), each starting at its smallest
  *  vertex, by depth-limited search; stops after `maxCycles`. Johnson's search can spend its whole
  *  budget on long cycles through the first vertex of a dense graph; the short loops are the ones a
- *  designer reads first, so they are found this way before it. */
-export function shortCycles(count: number, adj: number[][], maxLen: number, maxCycles = 10000): CycleEnumeration {
+ *  designer reads first, so they are found this way before it. `keep` may refuse cycles (they
+ *  still count against `maxCycles`). */
+export function shortCycles(count: number, adj: number[][], maxLen: number, maxCycles = 10000, keep?: (path: number[]) => boolean): CycleEnumeration {
   const cycles: number[][] = [];
   const path: number[] = [];
   const onPath = new Uint8Array(count);
   let truncated = false;
+  let found = 0;
   const walk = (s: number, v: number): void => {
     for (const w of adj[v]) {
       if (truncated) return;
       if (w === s && path.length >= 2) {
-        if (cycles.length >= maxCycles) { truncated = true; return; }
-        cycles.push(path.slice());
+        if (found >= maxCycles) { truncated = true; return; }
+        found++;
+        // `keep`: the caller's test on the cycle as found (path in order); cycles it refuses are
+        // counted against maxCycles but not listed
+        if (!keep || keep(path)) cycles.push(path.slice());
       } else if (w > s && !onPath[w] && path.length < maxLen) {
         path.push(w); onPath[w] = 1;
         walk(s, w);

@@ -170,26 +170,28 @@ function scaleSystem(sys: MnaSystem, scale: Record<string, number>): MnaSystem {
 }
 
 /** Replace non-finite numbers by null (typed arrays by plain arrays) so the result is JSON-safe (no
- *  NaN / Infinity). In place, each object once: every object of the result is this call's own. */
+ *  NaN / Infinity). In place: every object of the result is this call's own (an object reached
+ *  twice is only looked at twice). */
 function jsonSafe<T>(v: T): T {
-  const seen = new Set<object>();
-  const fix = (x: unknown): unknown => {
-    if (typeof x === 'number') return Number.isFinite(x) ? x : null;
-    if (x instanceof Float64Array || x instanceof Int32Array) return Array.from(x as ArrayLike<number>, (y) => (Number.isFinite(y) ? y : null));
-    if (!x || typeof x !== 'object' || seen.has(x)) return x;
-    seen.add(x);
-    const o = x as Record<string, unknown>;
-    if (Array.isArray(o)) {
-      for (let i = 0; i < o.length; i++) if (needsFix(o[i])) o[i] = fix(o[i]);
-    } else {
-      const keys = Object.keys(o);
-      for (let i = 0; i < keys.length; i++) { const k = keys[i]; if (needsFix(o[k])) o[k] = fix(o[k]); }
-    }
-    return x;
-  };
   return fix(v) as T;
 }
 
-function needsFix(y: unknown): boolean {
-  return typeof y === 'number' ? !Number.isFinite(y) : typeof y === 'object' && y !== null;
+function fix(x: unknown): unknown {
+  if (typeof x === 'number') return Number.isFinite(x) ? x : null;
+  if (x instanceof Float64Array || x instanceof Int32Array) return Array.from(x as ArrayLike<number>, (y) => (Number.isFinite(y) ? y : null));
+  if (!x || typeof x !== 'object') return x;
+  if (Array.isArray(x)) {
+    for (let i = 0; i < x.length; i++) {
+      const y = x[i];
+      if (typeof y === 'number' ? !Number.isFinite(y) : typeof y === 'object' && y !== null) x[i] = fix(y);
+    }
+    return x;
+  }
+  const o = x as Record<string, unknown>;
+  const keys = Object.keys(o);
+  for (let i = 0; i < keys.length; i++) {
+    const y = o[keys[i]];
+    if (typeof y === 'number' ? !Number.isFinite(y) : typeof y === 'object' && y !== null) o[keys[i]] = fix(y);
+  }
+  return x;
 }

@@ -75,12 +75,6 @@ export function findPartCycles(
     row.sort((x, y) => pg.peak[a * P + y] - pg.peak[a * P + x]);
     adj.push(row);
   }
-  // short cycles exhaustively, then Johnson's enumeration for longer ones within the budget
-  const short = shortCycles(P, adj, SHORT_LEN, SHORT_BUDGET);
-  const long = elementaryCycles(P, adj, budget);
-  const all = short.truncated ? [...short.cycles, ...long.cycles.filter((c) => !short.cycles.some((x) => sameCycle(x, c)))]
-    : [...short.cycles, ...long.cycles.filter((c) => c.length > SHORT_LEN)];
-  const found = { cycles: all, truncated: short.truncated || long.truncated };
   // an upper bound per frequency spares evaluating hopeless cycles: ‖L‖ ≤ ∏ ‖D_PQ‖·‖H_Q‖ (Frobenius),
   // and |det(I − L) − 1| ≤ (1 + ‖L‖)^m − 1 for m × m L (m: the smallest part, as L may start anywhere)
   const F = fz.length;
@@ -103,12 +97,19 @@ export function findPartCycles(
   }
   const size = pg.sourcesOf.map((list) => list.length);
   const edges: Float64Array[] = [];
-  const bound = (cyc: number[]) => {
+  const smallest = (cyc: number[]) => {
     let m = Infinity;
     for (const p of cyc) if (size[p] < m) m = size[p];
+    return m;
+  };
+  const coarseOk = (cyc: number[]) => {
     let coarse = 1;
     for (let k = 0; k < cyc.length; k++) coarse *= edgeMax[cyc[k] * P + cyc[(k + 1) % cyc.length]];
-    if (!(Math.pow(1 + coarse, m) - 1 > threshold)) return 0;
+    return Math.pow(1 + coarse, smallest(cyc)) - 1 > threshold;
+  };
+  const bound = (cyc: number[]) => {
+    const m = smallest(cyc);
+    if (!coarseOk(cyc)) return 0;
     edges.length = 0;
     for (let k = 0; k < cyc.length; k++) edges.push(edgeNorm[cyc[k] * P + cyc[(k + 1) % cyc.length]]!);
     // per frequency, the product along the cycle (edges in cycle order), and its largest value
@@ -120,6 +121,13 @@ export function findPartCycles(
     }
     return Math.pow(1 + b, m) - 1;
   };
+  // short cycles exhaustively, then Johnson's enumeration for longer ones within the budget
+  // (short cycles the coarse bound rules out are not even listed)
+  const short = shortCycles(P, adj, SHORT_LEN, SHORT_BUDGET, coarseOk);
+  const long = elementaryCycles(P, adj, budget);
+  const all = short.truncated ? [...short.cycles, ...long.cycles.filter((c) => !short.cycles.some((x) => sameCycle(x, c)))]
+    : [...short.cycles, ...long.cycles.filter((c) => c.length > SHORT_LEN)];
+  const found = { cycles: all, truncated: short.truncated || long.truncated };
   const evaluator = new CycleEvaluator(g, pg, cl);
   const evaluate = (cyc: number[]): PartCycle | null => {
     if (!(bound(cyc) > threshold)) return null;
