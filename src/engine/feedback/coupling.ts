@@ -57,6 +57,7 @@ export function couplingGraph(sys: MnaSystem, opts: CouplingOptions = {}): Coupl
   // unit-control excitations −u, kept sparse (a source's u has one or two entries)
   const negVals = stamps.map((s) => s.uVals.map((x) => -x));
   const work = { re: new Float64Array(n), im: new Float64Array(n) };
+  const cps = Int32Array.from(stamps, (s) => s.cp), cns = Int32Array.from(stamps, (s) => s.cn);
   for (const f of fHz) {
     const omega = 2 * Math.PI * f;
     let pencil = new PencilAt(Gcut, sys.C, n, omega);
@@ -73,7 +74,7 @@ export function couplingGraph(sys: MnaSystem, opts: CouplingOptions = {}): Coupl
       for (let j = 0; j < N; j++) {
         // the control v(cp) − v(cn) (as controlOf)
         let cr = 0, ci = 0;
-        const cp = stamps[j].cp, cn = stamps[j].cn;
+        const cp = cps[j], cn = cns[j];
         if (cp >= 0) { cr += x.re[cp]; ci += x.im[cp]; }
         if (cn >= 0) { cr -= x.re[cn]; ci -= x.im[cn]; }
         const k = i * N + j;

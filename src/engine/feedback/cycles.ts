@@ -147,7 +147,9 @@ export function shortCycles(count: number, adj: number[][], maxLen: number, maxC
   let truncated = false;
   let found = 0;
   const walk = (s: number, v: number): void => {
-    for (const w of adj[v]) {
+    const next = adj[v];
+    for (let t = 0; t < next.length; t++) {
+      const w = next[t];
       if (truncated) return;
       if (w === s && path.length >= 2) {
         if (found >= maxCycles) { truncated = true; return; }

@@ -104,7 +104,8 @@ export class PencilAt {
     } else {
       const Ai = new Float64Array(n * n);
       for (let i = 0; i < n * n; i++) Ai[i] = omega * C[i];
-      this.cplx = luComplex(G, Ai, n);
+      // factored in place: the copy of G and Ai are this factor's own
+      this.cplx = luComplex(Float64Array.from(G), Ai, n, 1e-14, true);
       this.singular = this.cplx.singularAt >= 0;
     }
   }
