@@ -45,7 +45,7 @@ export function returnRatiosAt(
   return stamps.map((s) => {
     if (controlIsGround(s) || s.value === 0) return { value: { re: 0, im: 0 }, status: 'no-control' as const };
     if (!full.singular) {
-      const x = full.solve(uVector(s, n));
+      const x = full.solveSparse(s.uRows, s.uVals);
       const a = controlOf(s, x);
       // T = a/(1 − a)
       const dr = 1 - a.re;
