@@ -45,12 +45,8 @@ export function fullPencil(sys: MnaSystem, G: Float64Array, fHz: number): FullPe
   const pencil = new PencilAt(G, sys.C, sys.n, 2 * Math.PI * fHz);
   const z: Cx[] = [];
   if (!pencil.singular) {
-    for (let i = 0; i < sys.nodeCount; i++) {
-      const e = new Float64Array(sys.n);
-      e[i] = 1;
-      const x = pencil.solve(e);
-      z.push(cx(x.re[i], x.im[i]));
-    }
+    const d = pencil.inverseDiagonal(sys.nodeCount);
+    for (let i = 0; i < sys.nodeCount; i++) z.push(cx(d.re[i], d.im[i]));
   }
   return { fHz, pencil, z };
 }

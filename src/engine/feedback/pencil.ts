@@ -10,7 +10,7 @@
 // network with the excitation −u; the returned control is −vᵀ(M⁰)⁻¹u, so Bode's return ratio is
 //   T = vᵀ(M⁰)⁻¹u = a / (1 − a),  a = vᵀM⁻¹u   (Sherman–Morrison; 1 + T = det M / det M⁰).
 import type { Element, MnaSystem } from '../types';
-import { luComplex, luReal, solveComplex, solveComplexAdjoint, solveReal, solveRealTransposed } from '../linalg/lu';
+import { complexInverseDiagonal, luComplex, luReal, solveComplex, solveComplexAdjoint, solveReal, solveRealTransposed } from '../linalg/lu';
 import type { ComplexLU, RealLU } from '../linalg/lu';
 
 export interface SourceStamp {
@@ -204,6 +204,39 @@ export class PencilAt {
       xi[i] = (si * dr - sr * di) / d;
     }
     return { re: xr, im: xi };
+  }
+
+  /** [M⁻¹]_kk for k < count: per k one solve with e_k that starts forward substitution at e_k's
+   *  permuted row and stops back substitution at row k (the same sums as a full solve, for x_k). */
+  inverseDiagonal(count: number): CVec {
+    if (this.cplx) {
+      const [re, im] = complexInverseDiagonal(this.cplx, count);
+      return { re, im };
+    }
+    const n = this.n;
+    const { lu, perm } = this.real!;
+    const { lStart, lIdx, uStart, uIdx } = this.rows();
+    const at = new Int32Array(n);
+    for (let i = 0; i < n; i++) at[perm[i]] = i;
+    const x = new Float64Array(n);
+    const re = new Float64Array(count);
+    for (let k = 0; k < count; k++) {
+      x.fill(0);
+      const first = at[k];
+      x[first] = 1;
+      for (let i = first + 1; i < n; i++) {
+        let sr = x[i];
+        for (let t = lStart[i]; t < lStart[i + 1]; t++) { const j = lIdx[t]; if (j >= first) sr -= lu[i * n + j] * x[j]; }
+        x[i] = sr;
+      }
+      for (let i = n - 1; i >= k; i--) {
+        let sr = x[i];
+        for (let t = uStart[i]; t < uStart[i + 1]; t++) { const j = uIdx[t]; sr -= lu[i * n + j] * x[j]; }
+        x[i] = sr / lu[i * n + i];
+      }
+      re[k] = x[k];
+    }
+    return { re, im: new Float64Array(count) };
   }
 
   /** Solves Mᵀ w = b (plain transpose, not conjugate): wᵀ = bᵀ M⁻¹ for row vectors. */

@@ -76,8 +76,14 @@ export class SplitBorder {
     const rows: number[] = [], vals: number[] = [];
     let uX = 0;
     s.uRows.forEach((r, k) => { if (r === n) uX += s.uVals[k]; else { rows.push(r); vals.push(s.uVals[k]); } });
-    // t = A⁻¹u_top = r + [y1 y2]·K·Wᵀr, r = M⁻¹u_top
-    const r = rows.length ? this.full.solveSparse(rows, vals) : { re: new Float64Array(n), im: new Float64Array(n) };
+    // t = A⁻¹u_top = r + [y1 y2]·K·Wᵀr, r = M⁻¹u_top (the same for every split at this frequency
+    // while the source's rows are not moved: kept with the full factor)
+    const memo = `${rows.join(',')}|${vals.join(',')}`;
+    let r = solvedOf(this.full).get(memo);
+    if (!r) {
+      r = rows.length ? this.full.solveSparse(rows, vals) : { re: new Float64Array(n), im: new Float64Array(n) };
+      solvedOf(this.full).set(memo, r);
+    }
     const w1 = { re: r.re[node], im: r.im[node] };
     const cr = dotC(this.cRe, this.cIm, r);
     const w2 = add(cr, mul(this.d, w1));
@@ -100,6 +106,14 @@ export class SplitBorder {
     }
     return { a, px, qx };
   }
+}
+
+/** M⁻¹u by right-hand side (rows|values), per full factor. */
+const solved = new WeakMap<PencilAt, Map<string, CVec>>();
+function solvedOf(full: PencilAt): Map<string, CVec> {
+  let m = solved.get(full);
+  if (!m) { m = new Map(); solved.set(full, m); }
+  return m;
 }
 
 function combine(base: CVec, y1: CVec, y2: CVec, c1: Cx, c2: Cx): CVec {
