@@ -57,14 +57,16 @@ export function couplingGraph(sys: MnaSystem, opts: CouplingOptions = {}): Coupl
   // unit-control excitations −u, kept sparse (a source's u has one or two entries)
   const negVals = stamps.map((s) => s.uVals.map((x) => -x));
   const work = { re: new Float64Array(n), im: new Float64Array(n) };
+  // one pair of n × n buffers for every frequency's factor (each is used up before the next)
+  const lu = { re: new Float64Array(n * n), im: new Float64Array(n * n) };
   const cps = Int32Array.from(stamps, (s) => s.cp), cns = Int32Array.from(stamps, (s) => s.cn);
   for (const f of fHz) {
     const omega = 2 * Math.PI * f;
-    let pencil = new PencilAt(Gcut, sys.C, n, omega);
+    let pencil = new PencilAt(Gcut, sys.C, n, omega, lu);
     if (pencil.singular) {
       const Gm = Float64Array.from(Gcut);
       for (let k = 0; k < sys.nodeCount; k++) Gm[k * n + k] += GMIN;
-      pencil = new PencilAt(Gm, sys.C, n, omega);
+      pencil = new PencilAt(Gm, sys.C, n, omega, lu);
       gminAtHz.push(f);
     }
     const dRe = new Float64Array(N * N);

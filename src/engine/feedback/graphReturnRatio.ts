@@ -22,10 +22,11 @@ export function returnRatiosFromGraph(
   const points: (ReturnRatioPoint | null)[][] = ids.map(() => new Array<ReturnRatioPoint | null>(F).fill(null));
   const missing = new Set<number>();
   const work = { re: new Float64Array(N), im: new Float64Array(N) };
+  const bufRe = new Float64Array(N * N), bufIm = new Float64Array(N * N);
   for (let fi = 0; fi < F; fi++) {
     if (g.gminAtHz.includes(g.fHz[fi])) { missing.add(fi); continue; }
-    const Ar = new Float64Array(N * N);
-    const Ai = new Float64Array(N * N);
+    // every entry is written below, and each frequency's factor is used up before the next
+    const Ar = bufRe, Ai = bufIm;
     for (let i = 0; i < N; i++) {
       for (let j = 0; j < N; j++) {
         // (I − D)ᵀ: row j, column i (c = Dᵀc + …); its inverse has the same diagonal

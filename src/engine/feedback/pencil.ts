@@ -95,17 +95,22 @@ export class PencilAt {
   private cplx?: ComplexLU;
   readonly singular: boolean;
 
-  constructor(G: Float64Array, C: Float64Array, n: number, omega: number) {
+  /** `work`: two n × n buffers the factor is built in (overwritten; the caller keeps this factor
+   *  only until it hands the buffers to the next one); else the factor has its own. */
+  constructor(G: Float64Array, C: Float64Array, n: number, omega: number, work?: { re: Float64Array; im: Float64Array }) {
     this.n = n;
     this.omega = omega;
     if (omega === 0) {
-      this.real = luReal(G, n);
+      if (work) work.re.set(G);
+      this.real = work ? luReal(work.re, n, 1e-14, true) : luReal(G, n);
       this.singular = this.real.singularAt >= 0;
     } else {
-      const Ai = new Float64Array(n * n);
+      const Ai = work ? work.im : new Float64Array(n * n);
       for (let i = 0; i < n * n; i++) Ai[i] = omega * C[i];
-      // factored in place: the copy of G and Ai are this factor's own
-      this.cplx = luComplex(Float64Array.from(G), Ai, n, 1e-14, true);
+      const Ar = work ? work.re : new Float64Array(n * n);
+      Ar.set(G);
+      // factored in place: Ar and Ai are this factor's own copies
+      this.cplx = luComplex(Ar, Ai, n, 1e-14, true);
       this.singular = this.cplx.singularAt >= 0;
     }
   }
