@@ -51,12 +51,6 @@ export class ReducedPencil {
     return out;
   }
 
-  /** Row `i` of Q: x_i = (row i of Q)·y for a reduced solution y. */
-  qRow(i: number): Float64Array {
-    const n = this.n;
-    return this.red.Q.subarray(i * n, i * n + n);
-  }
-
   private project(x: Float64Array): Float64Array {
     const { n, Q } = this.red;
     const out = new Float64Array(n);
@@ -93,11 +87,6 @@ export class ReducedPencil {
     if (!Number.isFinite(re) || !Number.isFinite(im)) return null;
     const mag = Math.abs(re) + Math.abs(im);
     return sum <= MAX_SPREAD * mag ? { re, im } : null;
-  }
-
-  /** Factor of I + (jω − σ)H; null when a pivot is too small to trust. */
-  factorAt(omega: number): HessenbergFactor | null {
-    return HessenbergFactor.of(this.red.H, this.n, -this.red.sigma, omega);
   }
 }
 
