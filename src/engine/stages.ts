@@ -17,6 +17,8 @@ import { nodeTimeConstants, openCircuitTimeConstants, type NodeTimeConstant } fr
 import { poleParticipation } from './analyses/participation';
 import { poleVectors } from './analyses/modal';
 import { impedanceSweep } from './analyses/impedance-sweep';
+import { poleConditions, unreliablePoles } from './analyses/conditioning';
+import { formatSi } from './units';
 import { chooseSweep, nodeRows, sanitize, degenerateDcIssue, gainUnitOf } from './analyses/report';
 
 export interface OverlayStage {
@@ -119,9 +121,27 @@ export function completeStage(st: OverlayStage): AnalysisResult {
   res.octc = openCircuitTimeConstants(sys, dc);
   const vectors = poleVectors(sys, poles.poles, reduction);
   res.participation = poleParticipation(sys, poles.poles, { vectors });
+  const shaky = unreliablePoles(poleConditions(sys, poles.poles, vectors));
+  if (shaky.length > 0) res.issues.push(undeterminedPolesIssue(res, shaky));
   if (opts.impedanceSweep) {
     res.impedanceSweep = impedanceSweep(sys, logGrid(range.fMin, range.fMax, range.perDecade), { poles: poles.poles, reduction, vectors });
   }
   res.ok = !hasError(res.issues);
   return sanitize(res);
+}
+
+/** Warning for poles that double precision cannot place (conditioning.ts), naming where they live. */
+function undeterminedPolesIssue(res: AnalysisResult, which: number[]): EngineIssue {
+  const nodes = new Set<string>();
+  for (const i of which) { const top = res.participation[i]?.nodes[0]?.node; if (top) nodes.add(top); }
+  const at = [...nodes];
+  const where = at.length ? `, living at ${at.slice(0, 5).map((n) => `"${n}"`).join(', ')}${at.length > 5 ? ' …' : ''}` : '';
+  const some = which.slice(0, 3).map((i) => `${formatSi(res.poles[i].hz, 'Hz')}`).join(', ');
+  return {
+    severity: 'warning', code: 'ill-conditioned', ...(at[0] ? { node: at[0] } : {}),
+    message: `${which.length} pole${which.length > 1 ? 's are' : ' is'} numerically undetermined (e.g. ${some}${where}): ` +
+      'the pole condition number exceeds 1/ulp, as in a cascade of very high gain, so any double-precision solver places ' +
+      'them differently (some may even show in the right half-plane). Treat their values as unknown; node impedances and the ' +
+      'DC gain come from direct solves and are not affected.',
+  };
 }

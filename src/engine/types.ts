@@ -87,7 +87,8 @@ export interface EngineIssue {
     | 'no-output'
     | 'unknown-part'
     | 'unknown-node'
-    | 'singular';
+    | 'singular'
+    | 'ill-conditioned';
   message: string;
   part?: string;
   field?: string;

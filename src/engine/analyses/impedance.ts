@@ -4,8 +4,7 @@
 // 1/s residue W·K⁻¹·Vᵀ has a nonzero (k, k) entry (see dc.ts; for one null pair: v_k·w_k ≠ 0).
 
 import type { Cx, MnaSystem } from '../types';
-import { factorPencilAt } from './scaling';
-import { complexInverseDiagonal } from '../linalg/lu';
+import { factorPencilAt, scaledInverseDiagonal } from './scaling';
 import { dcBilinear, factorDc, type DcFactor } from './dc';
 
 export type ImpedanceSys = Pick<MnaSystem, 'n' | 'nodeCount' | 'G' | 'C'>;
@@ -45,12 +44,10 @@ export function impedancesAt(sys: ImpedanceSys, s: Cx): ImpedanceAt {
   if (f.singular) {
     return { values: new Array(nodeCount).fill(null), status: 'singular', reason: 'G + sC is singular at this s (s is a pole)' };
   }
-  // (G + sC)⁻¹ = S·(R(G + sC)S)⁻¹·R for the equilibrated factor (scaling.ts).
-  const [dr, di] = complexInverseDiagonal(f.lu, nodeCount);
+  const [dr, di] = scaledInverseDiagonal(f, nodeCount);
   const values: (Cx | null)[] = [];
   for (let k = 0; k < nodeCount; k++) {
-    const w = f.s.r[k] * f.s.c[k];
-    const z = { re: dr[k] * w, im: di[k] * w };
+    const z = { re: dr[k], im: di[k] };
     values.push(Number.isFinite(z.re) && Number.isFinite(z.im) ? z : null);
   }
   return { values, status: 'ok' };

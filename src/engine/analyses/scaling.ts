@@ -4,7 +4,7 @@
 // row and column has its largest entry in [1, 2), and a relative pivot tolerance means something.
 // A·x = b  ⇔  (R·A·S)·y = R·b,  x = S·y.
 
-import { luComplex, luReal, solveComplex, solveReal, type ComplexLU, type RealLU } from '../linalg/lu';
+import { complexInverseDiagonal, luComplex, luReal, pairedOrder, solveComplex, solveReal, type ComplexLU, type RealLU } from '../linalg/lu';
 
 export interface Scales {
   r: Float64Array;
@@ -53,35 +53,52 @@ export function solveScaledReal(f: ScaledRealLU, b: Float64Array): Float64Array 
   return y;
 }
 
-export interface ScaledComplexLU { lu: ComplexLU; s: Scales; n: number }
+/** Factor of R·A(order, order)·S: rows and columns equilibrated, unknowns in pairedOrder
+ *  (lu.ts), threshold pivoting. `order[k]` is the original unknown at position k. */
+export interface ScaledComplexLU { lu: ComplexLU; s: Scales; n: number; order: Int32Array }
 
-/** Complex LU of (Ar + i·Ai) after equilibration; `singular` when a scaled pivot vanished.
- *  `inPlace` scales and factors the caller's arrays instead of copies. */
-export function scaledLuComplex(Ar: Float64Array, Ai: Float64Array, n: number, relTol = 1e-14, inPlace = false): ScaledComplexLU & { singular: boolean } {
+/** Diagonal-preference threshold of the scaled factors (see luComplex). */
+const PIVOT_THRESHOLD = 0.1;
+
+/** Complex LU of (Ar + i·Ai) after equilibration; `singular` when a scaled pivot vanished. */
+export function scaledLuComplex(Ar: Float64Array, Ai: Float64Array, n: number, relTol = 1e-14): ScaledComplexLU & { singular: boolean } {
   const s = equilibrateBy((k) => Math.sqrt(Ar[k] * Ar[k] + Ai[k] * Ai[k]), n);
-  const Sr = inPlace ? Ar : new Float64Array(n * n);
-  const Si = inPlace ? Ai : new Float64Array(n * n);
+  const order = pairedOrder(n, (i, j) => Ar[i * n + j] !== 0 || Ai[i * n + j] !== 0);
+  const Sr = new Float64Array(n * n);
+  const Si = new Float64Array(n * n);
   for (let i = 0; i < n; i++) {
-    const ri = s.r[i];
+    const oi = order[i], ri = s.r[oi];
     for (let j = 0; j < n; j++) {
-      const f = ri * s.c[j];
-      Sr[i * n + j] = Ar[i * n + j] * f;
-      Si[i * n + j] = Ai[i * n + j] * f;
+      const oj = order[j], f = ri * s.c[oj];
+      Sr[i * n + j] = Ar[oi * n + oj] * f;
+      Si[i * n + j] = Ai[oi * n + oj] * f;
     }
   }
-  const lu = luComplex(Sr, Si, n, relTol, true);
-  return { lu, s, n, singular: lu.singularAt >= 0 };
+  const lu = luComplex(Sr, Si, n, relTol, true, PIVOT_THRESHOLD);
+  return { lu, s, n, order, singular: lu.singularAt >= 0 };
 }
 
 /** Solve A·x = b with the scaled factor (b real or complex). */
 export function solveScaledComplex(f: ScaledComplexLU, br: Float64Array, bi?: Float64Array): [Float64Array, Float64Array] {
-  const { n, s } = f;
+  const { n, s, order } = f;
   const rr = new Float64Array(n);
   const ri = new Float64Array(n);
-  for (let i = 0; i < n; i++) { rr[i] = s.r[i] * br[i]; ri[i] = bi ? s.r[i] * bi[i] : 0; }
+  for (let i = 0; i < n; i++) { const o = order[i]; rr[i] = s.r[o] * br[o]; ri[i] = bi ? s.r[o] * bi[o] : 0; }
   const [yr, yi] = solveComplex(f.lu, rr, ri);
-  for (let i = 0; i < n; i++) { yr[i] *= s.c[i]; yi[i] *= s.c[i]; }
-  return [yr, yi];
+  const xr = new Float64Array(n), xi = new Float64Array(n);
+  for (let i = 0; i < n; i++) { const o = order[i]; xr[o] = yr[i] * s.c[o]; xi[o] = yi[i] * s.c[o]; }
+  return [xr, xi];
+}
+
+/** (A⁻¹)_kk for k < count from the scaled factor: A⁻¹ = P·S·(R·PᵀAP·S)⁻¹·R·Pᵀ. */
+export function scaledInverseDiagonal(f: ScaledComplexLU, count: number): [Float64Array, Float64Array] {
+  const { n, s, order } = f;
+  const pos = new Int32Array(n);
+  for (let i = 0; i < n; i++) pos[order[i]] = i;
+  const want = Int32Array.from({ length: count }, (_, k) => pos[k]);
+  const [dr, di] = complexInverseDiagonal(f.lu, want);
+  for (let k = 0; k < count; k++) { const w = s.r[k] * s.c[k]; dr[k] *= w; di[k] *= w; }
+  return [dr, di];
 }
 
 /** Scaled complex LU of the pencil G + s·C at one complex frequency s. */
@@ -89,5 +106,5 @@ export function factorPencilAt(G: Float64Array, C: Float64Array, n: number, s: {
   const Ar = new Float64Array(n * n);
   const Ai = new Float64Array(n * n);
   for (let i = 0; i < n * n; i++) { Ar[i] = G[i] + s.re * C[i]; Ai[i] = s.im * C[i]; }
-  return scaledLuComplex(Ar, Ai, n, 1e-14, true);
+  return scaledLuComplex(Ar, Ai, n);
 }

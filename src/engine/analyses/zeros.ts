@@ -61,7 +61,10 @@ export function computeZeros(sys: ZeroSys, poles: Pole[] = [], opts: { refine?: 
   const gMax = maxAbs(G);
   const cMax = maxAbs(C);
   const w0 = cMax > 0 && gMax > 0 ? gMax / cMax : 1;
-  const probes = [{ re: -0.3719 * w0, im: 0.8713 * w0 }, { re: 0.5521 * w0, im: -1.9273 * w0 }, { re: -2.71e-3 * w0, im: 3.1e-3 * w0 }];
+  // Also far below w0: a high-order low-pass (a long amplifier chain) is attenuated below
+  // roundoff at w0 without being identically zero.
+  const probes = [{ re: -0.3719 * w0, im: 0.8713 * w0 }, { re: 0.5521 * w0, im: -1.9273 * w0 }, { re: -2.71e-3 * w0, im: 3.1e-3 * w0 },
+    { re: -2.9e-7 * w0, im: 4.1e-7 * w0 }, { re: -3.3e-11 * w0, im: 2.3e-11 * w0 }];
   const results = probes.map((s) => probe(sys, s));
   if (results.every((r) => r === null)) {
     return { zeros: [], infiniteCount: 0, status: 'singular-pencil', reason: 'G + sC is singular at every probe point: the circuit equations have no unique solution' };

@@ -49,6 +49,28 @@ export interface ComplexLU {
 }
 
 const TINY = 1e-300;
+/** Largest entry growth (relative to the matrix's largest entry) a kept diagonal pivot may cause. */
+export const GROWTH_LIMIT = 10;
+
+/** A symmetric elimination order for MNA-like matrices: each unknown whose diagonal is
+ *  structurally zero (a voltage-source or VCVS branch current) is placed right after the first
+ *  unknown with a nonzero diagonal that its row touches, so the source's incidence pair is
+ *  eliminated together instead of dragging the branch column through the whole network.
+ *  order[k] = original index at position k. `nonzero(i, j)` tells the pattern. */
+export function pairedOrder(n: number, nonzero: (i: number, j: number) => boolean): Int32Array {
+  const after: number[][] = Array.from({ length: n }, () => []);
+  const loose: number[] = [];
+  const zeroDiag = (i: number) => !nonzero(i, i);
+  for (let b = 0; b < n; b++) {
+    if (!zeroDiag(b)) continue;
+    let at = -1;
+    for (let j = 0; j < n && at < 0; j++) if (j !== b && !zeroDiag(j) && nonzero(b, j)) at = j;
+    if (at >= 0) after[at].push(b); else loose.push(b);
+  }
+  const order: number[] = [];
+  for (let k = 0; k < n; k++) if (!zeroDiag(k)) order.push(k, ...after[k]);
+  return Int32Array.from([...order, ...loose]);
+}
 
 export function luReal(A: Float64Array, n: number, relTol = 1e-14, inPlace = false): RealLU {
   const lu = inPlace ? A : Float64Array.from(A);
@@ -131,8 +153,11 @@ export function solveRealTransposed(f: RealLU, b: Float64Array): Float64Array {
   return x;
 }
 
-/** Complex LU of (Ar + i·Ai) with partial pivoting on |a|; `inPlace` factors into Ar, Ai. */
-export function luComplex(Ar: Float64Array, Ai: Float64Array, n: number, relTol = 1e-14, inPlace = false): ComplexLU {
+/** Complex LU of (Ar + i·Ai) with partial pivoting on |a|; `inPlace` factors into Ar, Ai.
+ *  With threshold u > 0 the diagonal pivot is kept while |a_kk| ≥ u·max_i |a_ik| (threshold
+ *  pivoting, Duff, Erisman & Reid §5.4) or while the growth it allows stays below GROWTH_LIMIT,
+ *  which follows a circuit's own elimination order. */
+export function luComplex(Ar: Float64Array, Ai: Float64Array, n: number, relTol = 1e-14, inPlace = false, threshold = 0): ComplexLU {
   const re = inPlace ? Ar : Float64Array.from(Ar);
   const im = inPlace ? Ai : Float64Array.from(Ai);
   const cols = new Int32Array(n);
@@ -149,6 +174,15 @@ export function luComplex(Ar: Float64Array, Ai: Float64Array, n: number, relTol 
     for (let i = k + 1; i < n; i++) {
       const v = re[i * n + k] * re[i * n + k] + im[i * n + k] * im[i * n + k];
       if (v > best2) { best2 = v; p = i; }
+    }
+    const diag2 = re[k * n + k] * re[k * n + k] + im[k * n + k] * im[k * n + k];
+    if (threshold > 0 && diag2 > 0 && p !== k) {
+      // Keep the diagonal when it is large enough, or when the growth it allows, |multiplier| ·
+      // the rest of row k, stays below the matrix's own scale (a unilateral stage: nothing right
+      // of the diagonal, any multiplier harmless).
+      let rest2 = 0;
+      for (let j = k + 1; j < n; j++) { const v = re[k * n + j] * re[k * n + j] + im[k * n + j] * im[k * n + j]; if (v > rest2) rest2 = v; }
+      if (diag2 >= threshold * threshold * best2 || (best2 / diag2) * rest2 <= GROWTH_LIMIT * GROWTH_LIMIT * max2) { p = k; best2 = diag2; }
     }
     const best = Math.sqrt(best2);
     minPivot = Math.min(minPivot, best);
@@ -238,21 +272,23 @@ export function solveComplex(f: ComplexLU, br: Float64Array, bi: Float64Array): 
   return [xr, xi];
 }
 
-/** Diagonal entries (A⁻¹)_kk, k < count, of the factored A: for each k one solve with e_k that
- *  starts the forward pass at e_k's permuted row and stops the backward pass at row k (only x_k
- *  is kept). Returns [re, im]. */
-export function complexInverseDiagonal(f: ComplexLU, count: number): [Float64Array, Float64Array] {
+/** Diagonal entries (A⁻¹)_kk of the factored A for k in `which` (a count c means 0..c−1): for
+ *  each k one solve with e_k that starts the forward pass at e_k's permuted row and stops the
+ *  backward pass at row k (only x_k is kept). Returns [re, im] in the order of `which`. */
+export function complexInverseDiagonal(f: ComplexLU, which: number | Int32Array): [Float64Array, Float64Array] {
   const { n, perm } = f;
+  const ks = typeof which === 'number' ? Int32Array.from({ length: which }, (_, k) => k) : which;
   const at = new Int32Array(n);
   for (let i = 0; i < n; i++) at[perm[i]] = i;
   const xr = new Float64Array(n), xi = new Float64Array(n);
-  const dr = new Float64Array(count), di = new Float64Array(count);
-  for (let k = 0; k < count; k++) {
+  const dr = new Float64Array(ks.length), di = new Float64Array(ks.length);
+  for (let t = 0; t < ks.length; t++) {
+    const k = ks[t];
     xr.fill(0); xi.fill(0);
     xr[at[k]] = 1;
     forwardComplex(f, xr, xi, at[k]);
     backwardComplex(f, xr, xi, k);
-    dr[k] = xr[k]; di[k] = xi[k];
+    dr[t] = xr[k]; di[t] = xi[k];
   }
   return [dr, di];
 }
