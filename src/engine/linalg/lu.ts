@@ -31,6 +31,9 @@ export interface RealLU {
   n: number;
   lu: Float64Array;
   rows?: FactorRows;
+  /** When factored in a symmetric order (pairedOrder): column k of the factor is unknown cols[k];
+   *  `perm` then already names original rows. The solves below honour it. */
+  cols?: Int32Array;
   perm: Int32Array;
   /** Index of the first column whose pivot was (numerically) zero, or −1. */
   singularAt: number;
@@ -72,8 +75,13 @@ export function pairedOrder(n: number, nonzero: (i: number, j: number) => boolea
   return Int32Array.from([...order, ...loose]);
 }
 
-export function luReal(A: Float64Array, n: number, relTol = 1e-14, inPlace = false): RealLU {
-  const lu = inPlace ? A : Float64Array.from(A);
+export function luReal(A: Float64Array, n: number, relTol = 1e-14, inPlace = false, order?: Int32Array, threshold = 0): RealLU {
+  let lu = inPlace ? A : Float64Array.from(A);
+  if (order) {
+    const src = lu;
+    lu = new Float64Array(n * n);
+    for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) lu[i * n + j] = src[order[i] * n + order[j]];
+  }
   const cols = new Int32Array(n);
   const perm = new Int32Array(n);
   for (let i = 0; i < n; i++) perm[i] = i;
@@ -87,6 +95,13 @@ export function luReal(A: Float64Array, n: number, relTol = 1e-14, inPlace = fal
     for (let i = k + 1; i < n; i++) {
       const v = Math.abs(lu[i * n + k]);
       if (v > best) { best = v; p = i; }
+    }
+    const diag = Math.abs(lu[k * n + k]);
+    if (threshold > 0 && diag > 0 && p !== k) {
+      // Diagonal kept as in luComplex: large enough, or with bounded growth.
+      let rest = 0;
+      for (let j = k + 1; j < n; j++) rest = Math.max(rest, Math.abs(lu[k * n + j]));
+      if (diag >= threshold * best || (best / diag) * rest <= GROWTH_LIMIT * maxAbs) { p = k; best = diag; }
     }
     minPivot = Math.min(minPivot, best);
     if (best <= Math.max(TINY, relTol * maxAbs)) {
@@ -108,7 +123,8 @@ export function luReal(A: Float64Array, n: number, relTol = 1e-14, inPlace = fal
       for (let t = 0; t < m; t++) { const j = cols[t]; lu[i * n + j] -= f * lu[k * n + j]; }
     }
   }
-  return { n, lu, perm, singularAt, minPivotRatio: maxAbs > 0 ? minPivot / maxAbs : 0 };
+  if (order) for (let k = 0; k < n; k++) perm[k] = order[perm[k]];
+  return { n, lu, perm, singularAt, minPivotRatio: maxAbs > 0 ? minPivot / maxAbs : 0, ...(order ? { cols: Int32Array.from(order) } : {}) };
 }
 
 /** Solve A·x = b for one right-hand side (b is not modified). */
@@ -131,14 +147,17 @@ export function solveReal(f: RealLU, b: Float64Array): Float64Array {
     for (let t = uStart[i]; t < uStart[i + 1]; t++) { const j = uIdx[t]; s -= lu[i * n + j] * x[j]; }
     x[i] = s / lu[i * n + i];
   }
-  return x;
+  if (!f.cols) return x;
+  const out = new Float64Array(n);
+  for (let i = 0; i < n; i++) out[f.cols[i]] = x[i];
+  return out;
 }
 
 /** Solve Aᵀ·x = b (used for left eigenvectors and adjoint sensitivities). */
 export function solveRealTransposed(f: RealLU, b: Float64Array): Float64Array {
   const { n, lu, perm } = f;
   const { lStart, lIdx, uStart, uIdx } = realRows(f);
-  const z = Float64Array.from(b);
+  const z = f.cols ? Float64Array.from(f.cols, (c) => b[c]) : Float64Array.from(b);
   // Uᵀz = b forward and Lᵀw = z backward, column-oriented: row j of U (L) is column j of Uᵀ (Lᵀ).
   for (let j = 0; j < n; j++) {
     const zj = (z[j] /= lu[j * n + j]);
