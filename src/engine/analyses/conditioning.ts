@@ -7,6 +7,7 @@
 // (any solver, LAPACK's included, returns different values, some in the right half-plane).
 
 import type { ModalVectors } from './modal';
+import { bilinear, sparseRows } from '../linalg/sparse';
 
 const ULP = 2.220446049250313e-16;
 
@@ -18,19 +19,14 @@ export function poleConditions(sys: { n: number; G: Float64Array; C: Float64Arra
   for (let k = 0; k < n * n; k++) { nG += G[k] * G[k]; nC += C[k] * C[k]; }
   nG = Math.sqrt(nG); nC = Math.sqrt(nC);
   const out = new Float64Array(poles.length);
+  const Cs = sparseRows(C, n);
   poles.forEach((p, i) => {
     const v = vectors[i];
     const mag = Math.hypot(p.re, p.im);
     if (!v || !(mag > 0)) { out[i] = mag > 0 ? Infinity : 0; return; }
-    let dr = 0, di = 0, xs = 0, ys = 0;
-    for (let r = 0; r < n; r++) {
-      let cr = 0, ci = 0;
-      for (let c = 0; c < n; c++) { const w = C[r * n + c]; if (w === 0) continue; cr += w * v.rightRe[c]; ci += w * v.rightIm[c]; }
-      dr += v.leftRe[r] * cr + v.leftIm[r] * ci;
-      di += v.leftRe[r] * ci - v.leftIm[r] * cr;
-      xs += v.rightRe[r] ** 2 + v.rightIm[r] ** 2;
-      ys += v.leftRe[r] ** 2 + v.leftIm[r] ** 2;
-    }
+    const [dr, di] = bilinear(Cs, v.leftRe, v.leftIm, v.rightRe, v.rightIm);
+    let xs = 0, ys = 0;
+    for (let r = 0; r < n; r++) { xs += v.rightRe[r] ** 2 + v.rightIm[r] ** 2; ys += v.leftRe[r] ** 2 + v.leftIm[r] ** 2; }
     const k = (Math.sqrt(xs * ys) * (nG + mag * nC)) / (mag * Math.hypot(dr, di));
     out[i] = Number.isFinite(k) ? k : Infinity;
   });

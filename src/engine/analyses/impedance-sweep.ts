@@ -10,6 +10,7 @@
 
 import type { Cx, MnaSystem } from '../types';
 import { scaledLuReal, solveScaledReal } from './scaling';
+import { bilinear, sparseRows } from '../linalg/sparse';
 import { shiftedReduction, type ShiftedReduction } from './hessenberg';
 import { impedancesAt } from './impedance';
 import { poleVectors, type ModalVectors } from './modal';
@@ -27,7 +28,7 @@ type Sys = Pick<MnaSystem, 'n' | 'nodeCount' | 'nodeNames' | 'G' | 'C'>;
 
 const CHECK_TOL = 1e-7;
 
-interface ModalForm { lr: Float64Array; li: Float64Array; rr: Float64Array[]; ri: Float64Array[]; d: Float64Array }
+interface ModalForm { lr: Float64Array; li: Float64Array; rr: Float64Array[]; ri: Float64Array[]; d: Float64Array; byNodeRe: Float64Array; byNodeIm: Float64Array }
 
 function buildModal(sys: Sys, poles: Pole[], red: ShiftedReduction, vectors?: ModalVectors[]): ModalForm | null {
   const { n, nodeCount: nc, C } = sys;
@@ -37,21 +38,16 @@ function buildModal(sys: Sys, poles: Pole[], red: ShiftedReduction, vectors?: Mo
   const rr: Float64Array[] = [], ri: Float64Array[] = [];
   let cn = 0;
   for (let k = 0; k < n * n; k++) cn = Math.max(cn, Math.abs(C[k]));
+  const Cs = sparseRows(C, n);
   for (let i = 0; i < m; i++) {
     const p = poles[i];
     lr[i] = p.re; li[i] = p.im;
     const v = vs[i];
     if (!(v.residual <= 1e-9)) return null;
     // d = yᴴ·C·x
-    let dr = 0, di = 0, xs = 0, ys = 0;
-    for (let r = 0; r < n; r++) {
-      let cr = 0, ci = 0;
-      for (let c = 0; c < n; c++) { const w = C[r * n + c]; if (w === 0) continue; cr += w * v.rightRe[c]; ci += w * v.rightIm[c]; }
-      dr += v.leftRe[r] * cr + v.leftIm[r] * ci;
-      di += v.leftRe[r] * ci - v.leftIm[r] * cr;
-      xs += v.rightRe[r] ** 2 + v.rightIm[r] ** 2;
-      ys += v.leftRe[r] ** 2 + v.leftIm[r] ** 2;
-    }
+    const [dr, di] = bilinear(Cs, v.leftRe, v.leftIm, v.rightRe, v.rightIm);
+    let xs = 0, ys = 0;
+    for (let r = 0; r < n; r++) { xs += v.rightRe[r] ** 2 + v.rightIm[r] ** 2; ys += v.leftRe[r] ** 2 + v.leftIm[r] ** 2; }
     const dd = dr * dr + di * di;
     if (!(Math.sqrt(dd) > 1e-8 * cn * Math.sqrt(xs * ys))) return null; // (near) defective pole
     const a = new Float64Array(nc), b = new Float64Array(nc);
@@ -86,7 +82,10 @@ function buildModal(sys: Sys, poles: Pole[], red: ShiftedReduction, vectors?: Mo
     if (!Number.isFinite(z)) return null;
     d[k] = z;
   }
-  return { lr, li, rr, ri, d };
+  // Node-major copies of the residues for the per-frequency loop (contiguous over the poles).
+  const byNodeRe = new Float64Array(nc * m), byNodeIm = new Float64Array(nc * m);
+  for (let i = 0; i < m; i++) for (let k = 0; k < nc; k++) { byNodeRe[k * m + i] = rr[i][k]; byNodeIm[k * m + i] = ri[i][k]; }
+  return { lr, li, rr, ri, d, byNodeRe, byNodeIm };
 }
 
 /** Z_k(jw) for every node k: 1/(jw − λ_i) once per pole, then one complex multiply-add per node. */
@@ -101,8 +100,9 @@ function evalModalAll(f: ModalForm, w: number, inv: { re: Float64Array; im: Floa
   const out: (Cx | null)[] = [];
   for (let k = 0; k < f.d.length; k++) {
     let re = f.d[k], im = 0;
+    const o = k * m;
     for (let i = 0; i < m; i++) {
-      const a = f.rr[i][k], b = f.ri[i][k], c = inv.re[i], d = inv.im[i];
+      const a = f.byNodeRe[o + i], b = f.byNodeIm[o + i], c = inv.re[i], d = inv.im[i];
       re += a * c - b * d;
       im += a * d + b * c;
     }

@@ -9,6 +9,7 @@
 
 import { solveRealTransposed, type RealLU } from '../linalg/lu';
 import { eigenvectorPair } from '../linalg/eigvec';
+import { mulComplex, sparseRows, type SparseRows } from '../linalg/sparse';
 import { shiftedReduction, type ShiftedReduction } from './hessenberg';
 
 export interface ModalVectors {
@@ -127,33 +128,27 @@ function applyQ(Q: Float64Array, n: number, vr: Float64Array, vi: Float64Array):
   return [or, oi];
 }
 
-/** Relative residuals of x ((G + λC)x) and y ((G + λC)ᴴy) in one pass over the matrices:
- *  ‖·‖ / ((‖G‖ + |λ|‖C‖)·‖v‖), Frobenius norms. */
-function residuals(G: Float64Array, C: Float64Array, n: number, lr: number, li: number,
+/** Relative residuals of x ((G + λC)x) and y ((G + λC)ᴴy): ‖·‖ / ((‖G‖ + |λ|‖C‖)·‖v‖),
+ *  Frobenius norms, from the nonzeros of G and C. */
+function residuals(G: SparseRows, C: SparseRows, n: number, lr: number, li: number,
   xr: Float64Array, xi: Float64Array, yr: Float64Array, yi: Float64Array, scale: number): number {
-  const tr = new Float64Array(n), ti = new Float64Array(n);
-  let sx = 0, xs = 0, ys = 0;
-  for (let i = 0; i < n; i++) {
-    let rr = 0, ri = 0;
-    const a = yr[i], b = yi[i];
-    for (let j = 0; j < n; j++) {
-      const k = i * n + j;
-      const g = G[k], c = C[k];
-      if (g === 0 && c === 0) continue; // MNA matrices are sparse
-      const mr = g + lr * c, mi = li * c;
-      rr += mr * xr[j] - mi * xi[j];
-      ri += mr * xi[j] + mi * xr[j];
-      // (G + λC)ᴴ y: column j gets conj(m_ij)·y_i
-      tr[j] += mr * a + mi * b;
-      ti[j] += mr * b - mi * a;
+  const gr = new Float64Array(n), gi = new Float64Array(n), cr = new Float64Array(n), ci = new Float64Array(n);
+  const norm = (ar: Float64Array, ai: Float64Array, br: Float64Array, bi: Float64Array, vr: Float64Array, vi: Float64Array, conj: number) => {
+    // ‖a + λ̃·b‖ / ‖v‖ with λ̃ = λ (conj = 1) or λ̄ (conj = −1)
+    let s = 0, v = 0;
+    for (let i = 0; i < n; i++) {
+      const rr = ar[i] + lr * br[i] - conj * li * bi[i];
+      const ri = ai[i] + lr * bi[i] + conj * li * br[i];
+      s += rr * rr + ri * ri;
+      v += vr[i] * vr[i] + vi[i] * vi[i];
     }
-    sx += rr * rr + ri * ri;
-    xs += xr[i] * xr[i] + xi[i] * xi[i];
-    ys += a * a + b * b;
-  }
-  let sy = 0;
-  for (let j = 0; j < n; j++) sy += tr[j] * tr[j] + ti[j] * ti[j];
-  return Math.max(Math.sqrt(sx / xs), Math.sqrt(sy / ys)) / scale;
+    return Math.sqrt(s / v);
+  };
+  mulComplex(G, xr, xi, gr, gi); mulComplex(C, xr, xi, cr, ci);
+  const rx = norm(gr, gi, cr, ci, xr, xi, 1);
+  mulComplex(G, yr, yi, gr, gi, true); mulComplex(C, yr, yi, cr, ci, true);
+  const ry = norm(gr, gi, cr, ci, yr, yi, -1);
+  return Math.max(rx, ry) / scale;
 }
 
 export interface ModalSolver {
@@ -170,6 +165,7 @@ export function modalSolver(G: Float64Array, C: Float64Array, n: number, reducti
   const tol = 1e-15 * Math.max(nH, 1e-300);
   const lu: RealLU = f;
   const work = { ur: new Float64Array(n * n), ui: new Float64Array(n * n) };
+  const Gs = sparseRows(G, n), Cs = sparseRows(C, n);
   return {
     vectors(lambda) {
       const dr = lambda.re - sigma, di = lambda.im, d2 = dr * dr + di * di;
@@ -189,7 +185,7 @@ export function modalSolver(G: Float64Array, C: Float64Array, n: number, reducti
       const yr = solveRealTransposed(lu, ur), yi = solveRealTransposed(lu, ui);
       if (!normalize(xr, xi) || !normalize(yr, yi)) return null;
       const scale = nG + Math.hypot(lambda.re, lambda.im) * nC;
-      const residual = residuals(G, C, n, lambda.re, lambda.im, xr, xi, yr, yi, scale);
+      const residual = residuals(Gs, Cs, n, lambda.re, lambda.im, xr, xi, yr, yi, scale);
       const errorEstimate = (2.2e-16 * nH) / Math.hypot(mr, mi);
       return { rightRe: xr, rightIm: xi, leftRe: yr, leftIm: yi, residual: Number.isFinite(residual) ? residual : Infinity, errorEstimate };
     },

@@ -62,16 +62,24 @@ const PIVOT_THRESHOLD = 0.1;
 
 /** Complex LU of (Ar + i·Ai) after equilibration; `singular` when a scaled pivot vanished. */
 export function scaledLuComplex(Ar: Float64Array, Ai: Float64Array, n: number, relTol = 1e-14): ScaledComplexLU & { singular: boolean } {
-  const s = equilibrateBy((k) => Math.sqrt(Ar[k] * Ar[k] + Ai[k] * Ai[k]), n);
-  const order = pairedOrder(n, (i, j) => Ar[i * n + j] !== 0 || Ai[i * n + j] !== 0);
-  const Sr = new Float64Array(n * n);
+  return scaledFactor(Ar, Ai, 0, 1, n, relTol);
+}
+
+/** Scaled, reordered factor of (P + sr·Q) + i·(si·Q), written straight from P and Q (no
+ *  intermediate matrix of G + sC). */
+function scaledFactor(P: Float64Array, Q: Float64Array, sr: number, si: number, n: number, relTol: number): ScaledComplexLU & { singular: boolean } {
+  const mag = new Float64Array(n * n);
+  for (let k = 0; k < n * n; k++) { const r = P[k] + sr * Q[k], i = si * Q[k]; mag[k] = Math.sqrt(r * r + i * i); }
+  const s = equilibrate(mag, n);
+  const order = pairedOrder(n, (i, j) => P[i * n + j] !== 0 || Q[i * n + j] !== 0);
+  const Sr = mag; // reused: the magnitudes are not needed past the scales
   const Si = new Float64Array(n * n);
   for (let i = 0; i < n; i++) {
     const oi = order[i], ri = s.r[oi];
     for (let j = 0; j < n; j++) {
-      const oj = order[j], f = ri * s.c[oj];
-      Sr[i * n + j] = Ar[oi * n + oj] * f;
-      Si[i * n + j] = Ai[oi * n + oj] * f;
+      const oj = order[j], k = oi * n + oj, f = ri * s.c[oj];
+      Sr[i * n + j] = (P[k] + sr * Q[k]) * f;
+      Si[i * n + j] = si * Q[k] * f;
     }
   }
   const lu = luComplex(Sr, Si, n, relTol, true, PIVOT_THRESHOLD);
@@ -103,8 +111,5 @@ export function scaledInverseDiagonal(f: ScaledComplexLU, count: number): [Float
 
 /** Scaled complex LU of the pencil G + s·C at one complex frequency s. */
 export function factorPencilAt(G: Float64Array, C: Float64Array, n: number, s: { re: number; im: number }): ReturnType<typeof scaledLuComplex> {
-  const Ar = new Float64Array(n * n);
-  const Ai = new Float64Array(n * n);
-  for (let i = 0; i < n * n; i++) { Ar[i] = G[i] + s.re * C[i]; Ai[i] = s.im * C[i]; }
-  return scaledLuComplex(Ar, Ai, n);
+  return scaledFactor(G, C, s.re, s.im, n, 1e-14);
 }

@@ -2,6 +2,7 @@
 // iteration (Wilkinson 1965; Golub & Van Loan §7.6.1) with one complex LU of A − σB, σ a hair
 // off λ so the factor stays regular: x ← (A − σB)⁻¹·B·x, y ← (A − σB)⁻ᴴ·Bᴴ·y.
 import { luComplex, solveComplex, solveComplexAdjoint, type ComplexLU } from './lu';
+import { mulComplex, sparseRows, type SparseRows } from './sparse';
 
 export interface EigenvectorPair {
   rightRe: Float64Array;
@@ -54,46 +55,11 @@ function rotateLargestReal(re: Float64Array, im: Float64Array): void {
   im[k] = 0;
 }
 
-/** A real n×n matrix by rows, zeros left out (MNA matrices have a few entries per row). */
-interface SparseRows { start: Int32Array; col: Int32Array; val: Float64Array }
-
-function sparseRows(M: Float64Array, n: number): SparseRows {
-  const start = new Int32Array(n + 1);
-  let m = 0;
-  for (let k = 0; k < n * n; k++) if (M[k] !== 0) m++;
-  const col = new Int32Array(m), val = new Float64Array(m);
-  m = 0;
-  for (let i = 0; i < n; i++) {
-    start[i] = m;
-    for (let j = 0; j < n; j++) { const v = M[i * n + j]; if (v !== 0) { col[m] = j; val[m] = v; m++; } }
-  }
-  start[n] = m;
-  return { start, col, val };
-}
-
-/** out ← M·v (Mᵀ·v when adjoint; M is real so Mᴴ = Mᵀ), v complex. */
-function realTimesComplex(M: SparseRows, n: number, vr: Float64Array, vi: Float64Array,
-  outR: Float64Array, outI: Float64Array, adjoint: boolean): void {
-  const { start, col, val } = M;
-  outR.fill(0); outI.fill(0);
-  for (let i = 0; i < n; i++) {
-    if (adjoint) {
-      const a = vr[i], b = vi[i];
-      if (a === 0 && b === 0) continue;
-      for (let t = start[i]; t < start[i + 1]; t++) { const j = col[t], m = val[t]; outR[j] += m * a; outI[j] += m * b; }
-    } else {
-      let sr = 0, si = 0;
-      for (let t = start[i]; t < start[i + 1]; t++) { const j = col[t], m = val[t]; sr += m * vr[j]; si += m * vi[j]; }
-      outR[i] = sr; outI[i] = si;
-    }
-  }
-}
-
 function iterate(f: ComplexLU, B: SparseRows, n: number, adjoint: boolean): [Float64Array, Float64Array] | null {
   let xr = start(n, adjoint ? 2 : 1), xi = start(n, adjoint ? 4 : 3);
   const tr = new Float64Array(n), ti = new Float64Array(n);
   for (let step = 0; step < STEPS; step++) {
-    if (step > 0) realTimesComplex(B, n, xr, xi, tr, ti, adjoint);
+    if (step > 0) mulComplex(B, xr, xi, tr, ti, adjoint);
     const rhsR = step > 0 ? tr : xr, rhsI = step > 0 ? ti : xi;
     [xr, xi] = adjoint ? solveComplexAdjoint(f, rhsR, rhsI) : solveComplex(f, rhsR, rhsI);
     if (!normalize(xr, xi)) return null;
@@ -137,8 +103,8 @@ export function eigenvectorPair(A: Float64Array, B: Float64Array, n: number,
 function rightResidual(A: SparseRows, B: SparseRows, n: number, lambda: { re: number; im: number },
   xr: Float64Array, xi: Float64Array, nA: number, nB: number): number {
   const ar = new Float64Array(n), ai = new Float64Array(n), br = new Float64Array(n), bi = new Float64Array(n);
-  realTimesComplex(A, n, xr, xi, ar, ai, false);
-  realTimesComplex(B, n, xr, xi, br, bi, false);
+  mulComplex(A, xr, xi, ar, ai);
+  mulComplex(B, xr, xi, br, bi);
   let s = 0, xn = 0;
   for (let i = 0; i < n; i++) {
     const rr = ar[i] - (lambda.re * br[i] - lambda.im * bi[i]);
