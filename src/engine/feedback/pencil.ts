@@ -10,7 +10,7 @@
 // network with the excitation −u; the returned control is −vᵀ(M⁰)⁻¹u, so Bode's return ratio is
 //   T = vᵀ(M⁰)⁻¹u = a / (1 − a),  a = vᵀM⁻¹u   (Sherman–Morrison; 1 + T = det M / det M⁰).
 import type { Element, MnaSystem } from '../types';
-import { complexInverseDiagonal, luComplex, luReal, solveComplex, solveComplexAdjoint, solveReal, solveRealTransposed } from '../linalg/lu';
+import { backwardComplex, backwardReal, complexInverseDiagonal, forwardComplex, forwardReal, luComplex, luReal, realInverseDiagonal, solveComplex, solveComplexAdjoint, solveReal, solveRealTransposed } from '../linalg/lu';
 import type { ComplexLU, RealLU } from '../linalg/lu';
 
 export interface SourceStamp {
@@ -125,32 +125,9 @@ export class PencilAt {
     return { re, im };
   }
 
-  /** Nonzero columns of each factor row, strictly below (L) and above (U) the diagonal, built on
-   *  first use: MNA factors keep few entries per row, and skipping the zeros leaves every sum as it
-   *  was (the skipped terms are exact zeros). */
-  private pattern?: { lStart: Int32Array; lIdx: Int32Array; uStart: Int32Array; uIdx: Int32Array };
-
-  private rows() {
-    if (this.pattern) return this.pattern;
-    const n = this.n;
-    const a = this.real ? this.real.lu : this.cplx!.re;
-    const b = this.real ? null : this.cplx!.im;
-    const lStart = new Int32Array(n + 1), uStart = new Int32Array(n + 1);
-    const l: number[] = [], u: number[] = [];
-    for (let i = 0; i < n; i++) {
-      lStart[i] = l.length; uStart[i] = u.length;
-      for (let j = 0; j < n; j++) {
-        if (j === i || (a[i * n + j] === 0 && (b === null || b[i * n + j] === 0))) continue;
-        (j < i ? l : u).push(j);
-      }
-    }
-    lStart[n] = l.length; uStart[n] = u.length;
-    this.pattern = { lStart, lIdx: Int32Array.from(l), uStart, uIdx: Int32Array.from(u) };
-    return this.pattern;
-  }
-
   /** Solves M x = b for a real b with few non-zeros (a source's u vector): forward substitution
-   *  starts at the first row the permuted b reaches, since L's rows above it only carry zeros. */
+   *  starts at the first row the permuted b reaches, since L's rows above it only carry zeros
+   *  (the factor's nonzero-pattern kernels of linalg/lu.ts). */
   solveSparse(rows: number[], vals: number[], out?: CVec): CVec {
     const n = this.n;
     // `out`: the caller's buffers, overwritten (for many solves in a row)
@@ -165,49 +142,14 @@ export class PencilAt {
         if (i < first) first = i;
       }
     }
-    const { lStart, lIdx, uStart, uIdx } = this.rows();
+    if (first === n) return { re: xr, im: xi };
     if (this.real) {
-      const { lu } = this.real;
-      for (let i = first + 1; i < n; i++) {
-        let sr = xr[i];
-        for (let t = lStart[i]; t < lStart[i + 1]; t++) {
-          const j = lIdx[t];
-          if (j >= first) sr -= lu[i * n + j] * xr[j];
-        }
-        xr[i] = sr;
-      }
-      for (let i = n - 1; i >= 0; i--) {
-        let sr = xr[i];
-        for (let t = uStart[i]; t < uStart[i + 1]; t++) { const j = uIdx[t]; sr -= lu[i * n + j] * xr[j]; }
-        xr[i] = sr / lu[i * n + i];
-      }
+      forwardReal(this.real, xr, first);
+      backwardReal(this.real, xr);
       return { re: xr, im: xi };
     }
-    const { re, im } = this.cplx!;
-    for (let i = first + 1; i < n; i++) {
-      let sr = xr[i], si = xi[i];
-      for (let t = lStart[i]; t < lStart[i + 1]; t++) {
-        const j = lIdx[t];
-        if (j < first) continue;
-        const lr = re[i * n + j], li = im[i * n + j];
-        sr -= lr * xr[j] - li * xi[j];
-        si -= lr * xi[j] + li * xr[j];
-      }
-      xr[i] = sr; xi[i] = si;
-    }
-    for (let i = n - 1; i >= 0; i--) {
-      let sr = xr[i], si = xi[i];
-      for (let t = uStart[i]; t < uStart[i + 1]; t++) {
-        const j = uIdx[t];
-        const ur = re[i * n + j], ui = im[i * n + j];
-        sr -= ur * xr[j] - ui * xi[j];
-        si -= ur * xi[j] + ui * xr[j];
-      }
-      const dr = re[i * n + i], di = im[i * n + i];
-      const d = dr * dr + di * di;
-      xr[i] = (sr * dr + si * di) / d;
-      xi[i] = (si * dr - sr * di) / d;
-    }
+    forwardComplex(this.cplx!, xr, xi, first);
+    backwardComplex(this.cplx!, xr, xi);
     return { re: xr, im: xi };
   }
 
@@ -218,30 +160,7 @@ export class PencilAt {
       const [re, im] = complexInverseDiagonal(this.cplx, count);
       return { re, im };
     }
-    const n = this.n;
-    const { lu, perm } = this.real!;
-    const { lStart, lIdx, uStart, uIdx } = this.rows();
-    const at = new Int32Array(n);
-    for (let i = 0; i < n; i++) at[perm[i]] = i;
-    const x = new Float64Array(n);
-    const re = new Float64Array(count);
-    for (let k = 0; k < count; k++) {
-      x.fill(0);
-      const first = at[k];
-      x[first] = 1;
-      for (let i = first + 1; i < n; i++) {
-        let sr = x[i];
-        for (let t = lStart[i]; t < lStart[i + 1]; t++) { const j = lIdx[t]; if (j >= first) sr -= lu[i * n + j] * x[j]; }
-        x[i] = sr;
-      }
-      for (let i = n - 1; i >= k; i--) {
-        let sr = x[i];
-        for (let t = uStart[i]; t < uStart[i + 1]; t++) { const j = uIdx[t]; sr -= lu[i * n + j] * x[j]; }
-        x[i] = sr / lu[i * n + i];
-      }
-      re[k] = x[k];
-    }
-    return { re, im: new Float64Array(count) };
+    return { re: realInverseDiagonal(this.real!, count), im: new Float64Array(count) };
   }
 
   /** Solves Mᵀ w = b (plain transpose, not conjugate): wᵀ = bᵀ M⁻¹ for row vectors. */

@@ -132,24 +132,54 @@ function realRows(f: RealLU): FactorRows {
   return (f.rows ??= factorRows(f.n, (k) => f.lu[k] !== 0));
 }
 
-export function solveReal(f: RealLU, b: Float64Array): Float64Array {
-  const { n, lu, perm } = f;
-  const { lStart, lIdx, uStart, uIdx } = realRows(f);
-  const x = new Float64Array(n);
-  for (let i = 0; i < n; i++) x[i] = b[perm[i]];
-  for (let i = 0; i < n; i++) {
+/** In place y ← L⁻¹y over rows first..n−1 (entries above `first` taken as zero), real factor. */
+export function forwardReal(f: RealLU, x: Float64Array, first = 0): void {
+  const { n, lu } = f;
+  const { lStart, lIdx } = realRows(f);
+  for (let i = first + 1; i < n; i++) {
     let s = x[i];
-    for (let t = lStart[i]; t < lStart[i + 1]; t++) { const j = lIdx[t]; s -= lu[i * n + j] * x[j]; }
+    for (let t = lStart[i]; t < lStart[i + 1]; t++) { const j = lIdx[t]; if (j >= first) s -= lu[i * n + j] * x[j]; }
     x[i] = s;
   }
-  for (let i = n - 1; i >= 0; i--) {
+}
+
+/** In place x ← U⁻¹x for rows n−1 down to `last`, real factor. */
+export function backwardReal(f: RealLU, x: Float64Array, last = 0): void {
+  const { n, lu } = f;
+  const { uStart, uIdx } = realRows(f);
+  for (let i = n - 1; i >= last; i--) {
     let s = x[i];
     for (let t = uStart[i]; t < uStart[i + 1]; t++) { const j = uIdx[t]; s -= lu[i * n + j] * x[j]; }
     x[i] = s / lu[i * n + i];
   }
+}
+
+export function solveReal(f: RealLU, b: Float64Array): Float64Array {
+  const { n, perm } = f;
+  const x = new Float64Array(n);
+  for (let i = 0; i < n; i++) x[i] = b[perm[i]];
+  forwardReal(f, x);
+  backwardReal(f, x);
   if (!f.cols) return x;
   const out = new Float64Array(n);
   for (let i = 0; i < n; i++) out[f.cols[i]] = x[i];
+  return out;
+}
+
+/** (A⁻¹)_kk for k < count of a real factor without a symmetric order (see complexInverseDiagonal). */
+export function realInverseDiagonal(f: RealLU, count: number): Float64Array {
+  const { n, perm } = f;
+  const at = new Int32Array(n);
+  for (let i = 0; i < n; i++) at[perm[i]] = i;
+  const x = new Float64Array(n);
+  const out = new Float64Array(count);
+  for (let k = 0; k < count; k++) {
+    x.fill(0);
+    x[at[k]] = 1;
+    forwardReal(f, x, at[k]);
+    backwardReal(f, x, k);
+    out[k] = x[k];
+  }
   return out;
 }
 
