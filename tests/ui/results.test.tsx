@@ -238,4 +238,27 @@ describe('results panels on the live store', () => {
     // 1/(2πRC) still shown (textbook RC pole)
     expect(firstPoleHz()).toBeCloseTo(1 / (2 * Math.PI * 10e3 * 1e-12), -5);
   });
+
+  it("the engine's warnings about the figures are listed under the summary (here: a frequency it cannot use)", async () => {
+    const listeners: ((m: RunMessage) => void)[] = [];
+    const runner: AnalysisRunner = {
+      kind: 'same-thread',
+      run(req) {
+        setTimeout(() => {
+          // −5 Hz is not a frequency: the engine warns and uses its default (engine contract).
+          const result = analyze(req.netlist, { frequencyHz: -5, off: req.offSources });
+          listeners.forEach((fn) => fn({ runId: req.runId, stage: 1, result }));
+        }, 0);
+      },
+      onMessage: (fn) => { listeners.push(fn); },
+      dispose() {},
+    };
+    const store = createLiveStore({ runner });
+    render(<ResultsPanel store={store} />);
+    act(() => store.actions.submit(rcDrawing('1p')));
+    const list = await screen.findByTestId('results-warnings');
+    expect(list.textContent).toMatch(/frequencyHz: -5 is not a frequency/);
+    // the figures are still there: 1/(2πRC) (textbook RC pole)
+    expect(firstPoleHz()).toBeCloseTo(1 / (2 * Math.PI * 10e3 * 1e-12), -5);
+  });
 });

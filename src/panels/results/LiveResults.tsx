@@ -41,6 +41,8 @@ export function LiveResults({ state, actions, initialTab = 'poles' }: LiveResult
   const selGroup = groupOf(groups, settings.selectedLoopId);
   const selEntry = settings.selectedLoopId ? state.loops[settings.selectedLoopId] : undefined;
   const errors = state.issues.filter((i) => i.severity === 'error');
+  // Engine warnings about the figures themselves (e.g. poles double precision cannot place).
+  const warnings = result?.issues.filter((i) => i.severity === 'warning') ?? [];
   const busy = state.status === 'busy';
 
   let body: React.ReactNode;
@@ -68,6 +70,11 @@ export function LiveResults({ state, actions, initialTab = 'poles' }: LiveResult
           <dt>−3 dB bandwidth</dt><dd>{fmtHz(result.bandwidthHz)}</dd>
           {gu.dimensionless ? <><dt>unity-gain frequency</dt><dd>{fmtHz(result.unityGainHz)}</dd></> : null}
         </dl>
+        {warnings.length ? (
+          <ul className="rp-warnings" data-testid="results-warnings" aria-label="Notes on these results">
+            {warnings.slice(0, 4).map((w, k) => <li key={k} title={w.message}>⚠ {w.message}</li>)}
+          </ul>
+        ) : null}
         <div className="rp-tabs" role="tablist" aria-label="Results">
           {TABS.map(([k, text]) => (
             <button key={k} type="button" role="tab" aria-selected={k === tab} onClick={() => setTab(k)}>
