@@ -135,13 +135,13 @@ function undeterminedPolesIssue(res: AnalysisResult, which: number[]): EngineIss
   const nodes = new Set<string>();
   for (const i of which) { const top = res.participation[i]?.nodes[0]?.node; if (top) nodes.add(top); }
   const at = [...nodes];
-  const where = at.length ? `, living at ${at.slice(0, 5).map((n) => `"${n}"`).join(', ')}${at.length > 5 ? ' …' : ''}` : '';
-  const some = which.slice(0, 3).map((i) => `${formatSi(res.poles[i].hz, 'Hz')}`).join(', ');
+  const where = at.length ? ` at ${at.slice(0, 3).map((n) => `"${n}"`).join(', ')}${at.length > 3 ? ' …' : ''}` : '';
+  const heads = which.filter((i) => res.poles[i].im >= 0); // one member of each conjugate pair
+  const some = heads.slice(0, 2).map((i) => formatSi(res.poles[i].hz, 'Hz')).join(', ');
   return {
     severity: 'warning', code: 'ill-conditioned', ...(at[0] ? { node: at[0] } : {}),
-    message: `${which.length} pole${which.length > 1 ? 's are' : ' is'} numerically undetermined (e.g. ${some}${where}): ` +
-      'the pole condition number exceeds 1/ulp, as in a cascade of very high gain, so any double-precision solver places ' +
-      'them differently (some may even show in the right half-plane). Treat their values as unknown; node impedances and the ' +
-      'DC gain come from direct solves and are not affected.',
+    message: `${which.length} pole${which.length > 1 ? 's' : ''} (e.g. ${some}${where}) cannot be placed in double precision: ` +
+      'condition number above 1/ulp, as in a very-high-gain cascade. Treat their values, right-half-plane ones included, ' +
+      'as unknown; node impedances and the DC gain are direct solves and not affected.',
   };
 }
