@@ -206,6 +206,7 @@ export function poleVectors(
   const { n, G, C } = sys;
   const ms = poles.length > 0 ? modalSolver(G, C, n, reduction) : null;
   let A: Float64Array | null = null;
+  let pattern: { A: SparseRows; B: SparseRows } | undefined;
   const out: ModalVectors[] = [];
   const byPair = new Map<string, number>();
   poles.forEach((p, i) => {
@@ -220,7 +221,8 @@ export function poleVectors(
     const q = ms?.vectors(lambda) ?? null;
     if (q && q.residual <= FAST_RESIDUAL_OK && q.errorEstimate <= FAST_ERROR_OK) { out.push(q); return; }
     if (!A) { A = new Float64Array(n * n); for (let k = 0; k < n * n; k++) A[k] = -G[k]; }
-    const e = eigenvectorPair(A, C, n, lambda);
+    pattern ??= { A: sparseRows(A, n), B: sparseRows(C, n) };
+    const e = eigenvectorPair(A, C, n, lambda, pattern);
     out.push({ ...e, errorEstimate: 0 });
   });
   return out;

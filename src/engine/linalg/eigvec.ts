@@ -70,7 +70,7 @@ function iterate(f: ComplexLU, B: SparseRows, n: number, adjoint: boolean): [Flo
 /** Right x ((A − λB)x = 0) and left y (yᴴ(A − λB) = 0) eigenvectors for a finite λ, both of
  *  unit 2-norm, each rotated so its largest entry is real positive. */
 export function eigenvectorPair(A: Float64Array, B: Float64Array, n: number,
-  lambda: { re: number; im: number }): EigenvectorPair {
+  lambda: { re: number; im: number }, pattern?: { A: SparseRows; B: SparseRows }): EigenvectorPair {
   const none = (): EigenvectorPair => ({
     rightRe: new Float64Array(Math.max(0, n | 0)), rightIm: new Float64Array(Math.max(0, n | 0)),
     leftRe: new Float64Array(Math.max(0, n | 0)), leftIm: new Float64Array(Math.max(0, n | 0)), residual: Infinity,
@@ -82,7 +82,8 @@ export function eigenvectorPair(A: Float64Array, B: Float64Array, n: number,
   const mag = Math.hypot(lambda.re, lambda.im);
   const scale = mag > 0 ? mag : nA / Math.max(nB, 1e-300);
   const Mr = new Float64Array(n * n), Mi = new Float64Array(n * n);
-  const As = sparseRows(A, n), Bs = sparseRows(B, n);
+  // `pattern`: the nonzeros of A and B when the caller asks for many eigenvalues of one pencil
+  const As = pattern?.A ?? sparseRows(A, n), Bs = pattern?.B ?? sparseRows(B, n);
   for (const offset of OFFSETS) {
     // Off λ along a fixed slanted direction, so a real λ also gets a non-real shift.
     const sr = lambda.re + offset * scale * 0.6, si = lambda.im + offset * scale * 0.8;
