@@ -10,8 +10,8 @@
 
 import type { MnaSystem } from '../types';
 import { equilibrate, type Scales } from './scaling';
-import { pairedOrder } from '../linalg/lu';
-import { leftNullVectors, rightNullVectors, rrlu, solveParticular, thresholdLu, type RankRevealingLU } from './rrlu';
+import { luRealCircuit } from '../linalg/lu';
+import { leftNullVectors, rightNullVectors, rrlu, solveParticular, type RankRevealingLU } from './rrlu';
 
 /** 'degenerate': G is singular but the simple model above does not apply (K singular: a repeated
  *  pole at s = 0 such as cascaded integrators); DC figures are then undefined rather than computed. */
@@ -93,10 +93,14 @@ export function factorDc(sys: Pick<MnaSystem, 'n' | 'G' | 'C'>): DcFactor {
   }
   const tol = Math.max(1e-300, REL_PIVOT * big);
   const empty = { C, sc, right: [] as Float64Array[], left: [] as Float64Array[], kInv: new Float64Array(0) as Float64Array };
-  // Threshold pivoting first: it proves G regular where complete pivoting would be misled by a
-  // high-gain cascade (see rrlu.ts); the rank-revealing factor is needed only when it fails.
-  const direct = thresholdLu(Gs, n, tol, pairedOrder(n, (i, j) => G[i * n + j] !== 0));
-  if (direct) return { n, lu: direct, status: 'regular', ...empty };
+  // The circuit-order LU first (source branch beside its node, growth-bounded diagonal pivots,
+  // lu.ts): it proves G regular where complete pivoting would take a high-gain cascade's gm
+  // entries as pivots and leave one as small as 1/(product of the stage gains). The
+  // rank-revealing factor is needed only when it fails.
+  const direct = luRealCircuit(Gs, n, REL_PIVOT);
+  if (direct.singularAt < 0) {
+    return { n, lu: { n, rank: n, lu: direct.lu, rowPerm: direct.perm, colPerm: direct.cols! }, status: 'regular', ...empty };
+  }
   const lu = rrlu(Gs, n, tol);
   const base = { n, lu, ...empty };
   if (lu.rank === n) return { ...base, status: 'regular' };

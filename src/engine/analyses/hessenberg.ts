@@ -6,7 +6,7 @@
 // one O(n²) Hessenberg solve per frequency after an O(n³) set-up.
 
 import type { Cx } from '../types';
-import { luReal, pairedOrder, solveReal, type RealLU } from '../linalg/lu';
+import { luRealCircuit, solveReal, type RealLU } from '../linalg/lu';
 
 export interface HessenbergForm {
   n: number;
@@ -69,7 +69,7 @@ export function reduceShifted(G: Float64Array, C: Float64Array, n: number, sigma
   for (let i = 0; i < n * n; i++) A[i] = G[i] + sigma * C[i];
   // Circuit elimination order (source branch beside its node, growth-bounded diagonal pivots):
   // a high-gain cascade keeps pivots of its conductances' size (lu.ts pairedOrder).
-  const f = luReal(A, n, 1e-14, true, pairedOrder(n, (i, j) => A[i * n + j] !== 0), 0.1);
+  const f = luRealCircuit(A, n);
   if (f.singularAt >= 0 || f.minPivotRatio < 1e-13) return null;
   const M = new Float64Array(n * n);
   const col = new Float64Array(n);

@@ -4,8 +4,6 @@
 //   right: A·Q·[w1; e_j] = 0 with U11·w1 = −U12·e_j;
 //   left:  yᵀA = 0 with y = Pᵀ·L⁻ᵀ·e_(r+j).
 
-import { GROWTH_LIMIT } from '../linalg/lu';
-
 export interface RankRevealingLU {
   n: number;
   rank: number;
@@ -50,47 +48,6 @@ export function rrlu(A: Float64Array, n: number, tol: number): RankRevealingLU {
   // Below the rank the remaining block is (numerically) zero: clear it so it reads as U = 0.
   for (let i = rank; i < n; i++) for (let j = rank; j < n; j++) lu[i * n + j] = 0;
   return { n, rank, lu, rowPerm, colPerm };
-}
-
-/** LU with row pivoting that keeps the diagonal pivot while it is at least `u` times the largest
- *  entry of its column (threshold pivoting, as circuit simulators factor MNA matrices; Duff,
- *  Erisman & Reid, Direct Methods for Sparse Matrices, §5.4). On a unilateral chain (a cascade
- *  of transconductors, each loading the next only through its gate) this follows the signal and
- *  its pivots stay of the size of the conductances, where complete pivoting picks the gm entries
- *  and leaves a pivot as small as 1/(product of the stage gains). Returns the factor in the
- *  rank-revealing layout (rank n, no column permutation), or null when a pivot is ≤ tol. */
-export function thresholdLu(A: Float64Array, n: number, tol: number, order?: Int32Array, u = 0.1): RankRevealingLU | null {
-  // Work on A(order, order): the caller's symmetric ordering (e.g. a source branch next to its node).
-  const ord = order ?? Int32Array.from({ length: n }, (_, i) => i);
-  const lu = new Float64Array(n * n);
-  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) lu[i * n + j] = A[ord[i] * n + ord[j]];
-  const p = Int32Array.from({ length: n }, (_, i) => i);
-  let scale = 0;
-  for (let i = 0; i < n * n; i++) scale = Math.max(scale, Math.abs(lu[i]));
-  for (let k = 0; k < n; k++) {
-    let best = 0, pi = k;
-    for (let i = k; i < n; i++) { const v = Math.abs(lu[i * n + k]); if (v > best) { best = v; pi = i; } }
-    const diag = Math.abs(lu[k * n + k]);
-    if (diag > 0 && pi !== k) {
-      // As in luComplex (lu.ts): keep the diagonal when large enough or when its growth is bounded.
-      let rest = 0;
-      for (let j = k + 1; j < n; j++) rest = Math.max(rest, Math.abs(lu[k * n + j]));
-      if (diag >= u * best || (best / diag) * rest <= GROWTH_LIMIT * scale) pi = k;
-    }
-    const p0 = lu[pi * n + k];
-    if (!(Math.abs(p0) > tol)) return null;
-    if (pi !== k) {
-      for (let j = 0; j < n; j++) { const t = lu[k * n + j]; lu[k * n + j] = lu[pi * n + j]; lu[pi * n + j] = t; }
-      const t = p[k]; p[k] = p[pi]; p[pi] = t;
-    }
-    for (let i = k + 1; i < n; i++) {
-      const f = lu[i * n + k] / p0;
-      lu[i * n + k] = f;
-      if (f === 0) continue;
-      for (let j = k + 1; j < n; j++) lu[i * n + j] -= f * lu[k * n + j];
-    }
-  }
-  return { n, rank: n, lu, rowPerm: Int32Array.from(p, (r) => ord[r]), colPerm: Int32Array.from(ord) };
 }
 
 /** The n − rank right null vectors of A (max-norm 1). */

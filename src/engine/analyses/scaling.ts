@@ -4,7 +4,7 @@
 // row and column has its largest entry in [1, 2), and a relative pivot tolerance means something.
 // A·x = b  ⇔  (R·A·S)·y = R·b,  x = S·y.
 
-import { complexInverseDiagonal, luComplex, luReal, pairedOrder, solveComplex, solveReal, type ComplexLU, type RealLU } from '../linalg/lu';
+import { CIRCUIT_PIVOT_THRESHOLD, complexInverseDiagonal, luComplex, luRealCircuit, pairedOrder, solveComplex, solveReal, type ComplexLU, type RealLU } from '../linalg/lu';
 
 export interface Scales {
   r: Float64Array;
@@ -40,7 +40,7 @@ export function scaledLuReal(A: Float64Array, n: number, relTol = 1e-14): Scaled
   const s = equilibrateBy((k) => Math.abs(A[k]), n);
   const As = new Float64Array(n * n);
   for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) As[i * n + j] = s.r[i] * A[i * n + j] * s.c[j];
-  return { lu: luReal(As, n, relTol, true), s, n };
+  return { lu: luRealCircuit(As, n, relTol), s, n };
 }
 
 /** Solve A·x = b with the scaled real factor. */
@@ -57,8 +57,6 @@ export function solveScaledReal(f: ScaledRealLU, b: Float64Array): Float64Array 
  *  (lu.ts), threshold pivoting. `order[k]` is the original unknown at position k. */
 export interface ScaledComplexLU { lu: ComplexLU; s: Scales; n: number; order: Int32Array }
 
-/** Diagonal-preference threshold of the scaled factors (see luComplex). */
-const PIVOT_THRESHOLD = 0.1;
 
 /** Complex LU of (Ar + i·Ai) after equilibration; `singular` when a scaled pivot vanished. */
 export function scaledLuComplex(Ar: Float64Array, Ai: Float64Array, n: number, relTol = 1e-14): ScaledComplexLU & { singular: boolean } {
@@ -82,7 +80,7 @@ function scaledFactor(P: Float64Array, Q: Float64Array, sr: number, si: number, 
       Si[i * n + j] = si * Q[k] * f;
     }
   }
-  const lu = luComplex(Sr, Si, n, relTol, true, PIVOT_THRESHOLD);
+  const lu = luComplex(Sr, Si, n, relTol, true, CIRCUIT_PIVOT_THRESHOLD);
   return { lu, s, n, order, singular: lu.singularAt >= 0 };
 }
 

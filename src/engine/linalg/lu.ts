@@ -54,6 +54,8 @@ export interface ComplexLU {
 const TINY = 1e-300;
 /** Largest entry growth (relative to the matrix's largest entry) a kept diagonal pivot may cause. */
 export const GROWTH_LIMIT = 10;
+/** Diagonal-preference threshold of the circuit-order factors (see luComplex). */
+export const CIRCUIT_PIVOT_THRESHOLD = 0.1;
 
 /** A symmetric elimination order for MNA-like matrices: each unknown whose diagonal is
  *  structurally zero (a voltage-source or VCVS branch current) is placed right after the first
@@ -125,6 +127,12 @@ export function luReal(A: Float64Array, n: number, relTol = 1e-14, inPlace = fal
   }
   if (order) for (let k = 0; k < n; k++) perm[k] = order[perm[k]];
   return { n, lu, perm, singularAt, minPivotRatio: maxAbs > 0 ? minPivot / maxAbs : 0, ...(order ? { cols: Int32Array.from(order) } : {}) };
+}
+
+/** Real LU in the circuit's own order (pairedOrder, growth-bounded diagonal pivots): the factor
+ *  for MNA matrices whose signal path may carry a very high gain. */
+export function luRealCircuit(A: Float64Array, n: number, relTol = 1e-14): RealLU {
+  return luReal(A, n, relTol, false, pairedOrder(n, (i, j) => A[i * n + j] !== 0), CIRCUIT_PIVOT_THRESHOLD);
 }
 
 /** Solve A·x = b for one right-hand side (b is not modified). */
