@@ -5,16 +5,9 @@ import { eigs, matrix } from 'mathjs';
 import { Matrix, EigenvalueDecomposition, inverse } from 'ml-matrix';
 import { finiteEigenvalues } from '../../src/engine/linalg/qz';
 import { dggev } from './emlapack';
+import { rng } from '../seeded';
 
-/** Seeded generator (mulberry32, common practice). */
-export function rng(seed: number): () => number {
-  return () => {
-    seed |= 0; seed = (seed + 0x6d2b79f5) | 0;
-    let t = Math.imul(seed ^ (seed >>> 15), 1 | seed);
-    t = (t + Math.imul(t ^ (t >>> 7), 61 | t)) ^ t;
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+export { rng } from '../seeded';
 
 export interface NetworkPencil {
   n: number;

@@ -76,6 +76,24 @@ export async function launchBrowser(): Promise<{ browser: Browser; context: Brow
   return { browser, context, page };
 }
 
+/** The app built, served and open in a page (canvas drawn), with the page's uncaught errors. */
+export interface AppSession { served: Served; browser: Browser; page: Page; errors: string[] }
+
+export async function openApp(): Promise<AppSession> {
+  const served = await buildAndServe();
+  const { browser, page } = await launchBrowser();
+  const errors: string[] = [];
+  page.on('pageerror', (e) => errors.push(String(e)));
+  await page.goto(served.url);
+  await page.waitForSelector('canvas', { timeout: 20000 });
+  return { served, browser, page, errors };
+}
+
+export async function closeApp(app: AppSession | undefined): Promise<void> {
+  await app?.browser.close();
+  await app?.served.close();
+}
+
 export function artifactPath(name: string): string {
   mkdirSync(ARTIFACTS, { recursive: true });
   return join(ARTIFACTS, name);

@@ -4,8 +4,8 @@
 import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { afterAll, beforeAll, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
-import { artifactPath, browserSuite, buildAndServe, launchBrowser, type Served } from './harness';
+import type { Page } from 'playwright-core';
+import { artifactPath, browserSuite, closeApp, openApp, type AppSession } from './harness';
 import { loadDrawing } from '../../src/schematic/file';
 import { placedBounds } from '../../src/schematic/symbols';
 
@@ -15,10 +15,9 @@ interface R { x: number; y: number; width: number; height: number }
 const overlapArea = (a: R, b: R) => Math.max(0, Math.min(a.x + a.width, b.x + b.width) - Math.max(a.x, b.x)) * Math.max(0, Math.min(a.y + a.height, b.y + b.height) - Math.max(a.y, b.y));
 
 browserSuite('analysis overlay in Chromium', () => {
-  let served: Served;
-  let browser: Browser;
+  let app: AppSession;
   let page: Page;
-  const errors: string[] = [];
+  let errors: string[] = [];
   const text = readFileSync(DRAWING, 'utf8');
   const loaded = loadDrawing(JSON.parse(text));
   if (!loaded.ok) throw new Error(loaded.reason);
@@ -30,21 +29,15 @@ browserSuite('analysis overlay in Chromium', () => {
   });
 
   beforeAll(async () => {
-    served = await buildAndServe();
-    ({ browser, page } = await launchBrowser());
-    page.on('pageerror', (e) => errors.push(String(e)));
-    await page.goto(served.url);
-    await page.waitForSelector('canvas', { timeout: 20000 });
+    app = await openApp();
+    ({ page, errors } = app);
     await page.setInputFiles('[data-testid="file-input"]', { name: 'thirty-parts.json', mimeType: 'application/json', buffer: Buffer.from(text) });
     await page.locator('.sheet-zoom').getByTitle('Fit drawing to view').click();
     await page.waitForSelector('[data-testid="analysis-overlay"] .ao-badge, [data-testid="analysis-overlay"] .ao-dot', { timeout: 30000 });
     await page.waitForFunction(() => !document.querySelector('.ao-busy'), undefined, { timeout: 30000 });
     await page.waitForTimeout(300);
   });
-  afterAll(async () => {
-    await browser?.close();
-    await served?.close();
-  });
+  afterAll(() => closeApp(app));
 
   it('fitted to the view every net is marked (badge or dot), no badge on a symbol', async () => {
     await page.screenshot({ path: artifactPath('overlay-30-dc.png') });

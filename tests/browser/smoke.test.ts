@@ -1,24 +1,17 @@
 // Smoke test in real Chromium: the built app opens on its built-in example and draws on the canvas.
 import { afterAll, beforeAll, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
-import { artifactPath, browserSuite, buildAndServe, launchBrowser, type Served } from './harness';
+import type { Page } from 'playwright-core';
+import { artifactPath, browserSuite, closeApp, openApp, type AppSession } from './harness';
 
 browserSuite('app in Chromium', () => {
-  let served: Served;
-  let browser: Browser;
+  let app: AppSession;
   let page: Page;
-  const errors: string[] = [];
+  let errors: string[] = [];
   beforeAll(async () => {
-    served = await buildAndServe();
-    ({ browser, page } = await launchBrowser());
-    page.on('pageerror', (e) => errors.push(String(e)));
-    await page.goto(served.url);
-    await page.waitForSelector('canvas', { timeout: 20000 });
+    app = await openApp();
+    ({ page, errors } = app);
   });
-  afterAll(async () => {
-    await browser?.close();
-    await served?.close();
-  });
+  afterAll(() => closeApp(app));
 
   it('opens with a drawing on the canvas and no page errors', async () => {
     await page.waitForTimeout(500);

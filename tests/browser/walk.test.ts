@@ -5,8 +5,8 @@
 // Waits are on conditions (a badge or table cell changing), never on fixed sleeps.
 import { readFileSync } from 'node:fs';
 import { afterAll, beforeAll, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
-import { artifactPath, browserSuite, buildAndServe, launchBrowser, type Served } from './harness';
+import type { Page } from 'playwright-core';
+import { artifactPath, browserSuite, closeApp, openApp, type AppSession } from './harness';
 import { AUTOSAVE_KEY, loadDrawing } from '../../src/schematic/file';
 import { placedPins } from '../../src/schematic/symbols';
 import type { DrawingDocument, PartRecord } from '../../src/schematic/document';
@@ -22,23 +22,16 @@ function figure(text: string, unit: string): number {
 }
 
 browserSuite('walk-through of the main job in Chromium', () => {
-  let served: Served;
-  let browser: Browser;
+  let app: AppSession;
   let page: Page;
-  const errors: string[] = [];
+  let errors: string[] = [];
   const shot = (name: string) => page.screenshot({ path: artifactPath(`walk-${name}.png`) });
 
   beforeAll(async () => {
-    served = await buildAndServe();
-    ({ browser, page } = await launchBrowser());
-    page.on('pageerror', (e) => errors.push(String(e)));
-    await page.goto(served.url);
-    await page.waitForSelector('canvas', { timeout: 20000 });
+    app = await openApp();
+    ({ page, errors } = app);
   }, 120000);
-  afterAll(async () => {
-    await browser?.close();
-    await served?.close();
-  });
+  afterAll(() => closeApp(app));
 
   /** The drawing as the app autosaved it (the app's own state, written 400 ms after an edit). */
   async function savedDoc(): Promise<DrawingDocument> {

@@ -3,15 +3,8 @@
 import { describe, it, expect } from 'vitest';
 import { analyze, buildMna, type Netlist, type NetlistPart } from '../../src/engine/index';
 import { transferDirect } from '../../src/engine/analyses/transfer';
+import { rng } from '../seeded'; // mulberry32, common practice
 
-function rng(seed: number) {
-  return () => {
-    seed |= 0; seed = (seed + 0x6d2b79f5) | 0;
-    let t = Math.imul(seed ^ (seed >>> 15), 1 | seed);
-    t = (t + Math.imul(t ^ (t >>> 7), 61 | t)) ^ t;
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296; // mulberry32, common practice
-  };
-}
 
 function hasNonFinite(v: unknown): boolean {
   if (typeof v === 'number') return !Number.isFinite(v);

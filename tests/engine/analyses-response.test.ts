@@ -4,6 +4,7 @@ import { dcTransfer, transferDirect, transferEvaluator } from '../../src/engine/
 import { logGrid, sweepTransfer, findBandwidth, findUnityGain } from '../../src/engine/analyses/frequency';
 import { dcImpedances, impedancesAt, impedancesAtHz } from '../../src/engine/analyses/impedance';
 import { factorDc } from '../../src/engine/analyses/dc';
+import { rng } from '../seeded'; // mulberry32, common practice
 
 const TWO_PI = 2 * Math.PI;
 
@@ -130,15 +131,6 @@ describe('open at DC', () => {
 });
 
 describe('checks against independent libraries', () => {
-  // Seeded generator (mulberry32, common practice).
-  function rng(seed: number) {
-    return () => {
-      seed |= 0; seed = (seed + 0x6d2b79f5) | 0;
-      let t = Math.imul(seed ^ (seed >>> 15), 1 | seed);
-      t = (t + Math.imul(t ^ (t >>> 7), 61 | t)) ^ t;
-      return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-    };
-  }
   function randomStage(seed: number) {
     const r = rng(seed);
     const h = new Hand().V('vin', 'in', '0');

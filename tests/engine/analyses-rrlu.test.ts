@@ -1,15 +1,8 @@
 import { describe, it, expect } from 'vitest';
 import { Matrix, SingularValueDecomposition } from 'ml-matrix';
 import { rrlu, rightNullVectors, leftNullVectors, solveParticular } from '../../src/engine/analyses/rrlu';
+import { rng } from '../seeded'; // mulberry32, common practice
 
-function rng(seed: number) {
-  return () => {
-    seed |= 0; seed = (seed + 0x6d2b79f5) | 0;
-    let t = Math.imul(seed ^ (seed >>> 15), 1 | seed);
-    t = (t + Math.imul(t ^ (t >>> 7), 61 | t)) ^ t;
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296; // mulberry32, common practice
-  };
-}
 
 describe('rank-revealing LU (Golub & Van Loan, complete pivoting)', () => {
   it('finds the rank of random low-rank matrices like the SVD of ml-matrix (independent library), with exact null vectors', () => {

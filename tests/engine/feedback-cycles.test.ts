@@ -1,15 +1,7 @@
 import { describe, it, expect } from 'vitest';
 import { stronglyConnected, elementaryCycles } from '../../src/engine/feedback/cycles';
+import { rng } from '../seeded'; // mulberry32, common practice
 
-function rng(seed: number) {
-  // mulberry32 (common practice) for repeatable random graphs
-  return () => {
-    seed |= 0; seed = (seed + 0x6d2b79f5) | 0;
-    let t = Math.imul(seed ^ (seed >>> 15), 1 | seed);
-    t = (t + Math.imul(t ^ (t >>> 7), 61 | t)) ^ t;
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 /** Brute force: every simple cycle as the canonical vertex list (smallest vertex first). */
 function bruteCycles(count: number, adj: number[][]): Set<string> {

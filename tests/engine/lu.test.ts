@@ -1,16 +1,8 @@
 import { describe, it, expect } from 'vitest';
 import { Matrix, solve } from 'ml-matrix';
 import { luReal, solveReal, solveRealTransposed, luComplex, solveComplex, solveComplexAdjoint } from '../../src/engine/linalg/lu';
+import { rng } from '../seeded'; // mulberry32, common practice
 
-// Seeded generator (mulberry32, common practice) so every run sees the same matrices.
-function rng(seed: number) {
-  return () => {
-    seed |= 0; seed = (seed + 0x6d2b79f5) | 0;
-    let t = Math.imul(seed ^ (seed >>> 15), 1 | seed);
-    t = (t + Math.imul(t ^ (t >>> 7), 61 | t)) ^ t;
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 describe('dense LU', () => {
   it('real solve matches ml-matrix (independent library) on random systems', () => {

@@ -3,6 +3,7 @@ import { Hand } from './analyses-handmna';
 import { dcImpedances } from '../../src/engine/analyses/impedance';
 import { openCircuitTimeConstants, nodeTimeConstants } from '../../src/engine/analyses/octc';
 import { computePoles } from '../../src/engine/analyses/poles';
+import { rng } from '../seeded'; // mulberry32, common practice
 
 // Small-signal MOS as in types.ts: VCCS gm·(v(g) − v(s)) from d to s, gmb·(v(b) − v(s)) from d to
 // s, ro = 1/gds between d and s.
@@ -112,14 +113,6 @@ describe('open-circuit time constants of a common-source stage', () => {
 describe('open-circuit time constants and the poles', () => {
   // Gray & Searle 1969: Στ over all capacitors equals b1, the s-coefficient of
   // det(G + sC)/det(G) = Π(1 − s/p_i), so Στ = −Σ 1/p_i over the finite poles.
-  function rng(seed: number) {
-    return () => {
-      seed |= 0; seed = (seed + 0x6d2b79f5) | 0;
-      let t = Math.imul(seed ^ (seed >>> 15), 1 | seed);
-      t = (t + Math.imul(t ^ (t >>> 7), 61 | t)) ^ t;
-      return ((t ^ (t >>> 14)) >>> 0) / 4294967296; // mulberry32, common practice
-    };
-  }
   for (const seed of [1, 2, 3]) {
     it(`random active RC network ${seed}: Στ = −Σ 1/p`, () => {
       const r = rng(seed);

@@ -10,15 +10,9 @@ import { loadDrawing, saveDrawing } from '../../src/schematic/file';
 import { placedPins, SYMBOL_KINDS, symbolOf } from '../../src/schematic/symbols';
 import { EXAMPLE_DRAWINGS } from '../../src/examples/index';
 import { documentToNetlist } from '../../src/schematic/toNetlist';
+import { rng } from '../seeded';
 
-export function rng(seed: number): () => number {
-  return () => {
-    seed |= 0; seed = (seed + 0x6d2b79f5) | 0;
-    let t = Math.imul(seed ^ (seed >>> 15), 1 | seed);
-    t = (t + Math.imul(t ^ (t >>> 7), 61 | t)) ^ t;
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+export { rng } from '../seeded';
 
 /** Values a designer might type. */
 const SENSIBLE = ['1k', '4.7k', '10k', '2p', '100f', '1m', '20u', '1', '0.5', '10', '1M', '50', '2 pF', '3.3 kΩ', '60dB', '-4'];

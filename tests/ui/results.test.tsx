@@ -35,6 +35,19 @@ function rcDrawing(c: string): DrawingDocument {
   ], [['i', pt(60, 100), pt(110, 100)], ['o', pt(110, 160), pt(130, 160)]]);
 }
 
+/** A same-thread runner that answers each request with the given messages, in order. */
+function scriptedRunner(answer: (req: Parameters<AnalysisRunner['run']>[0]) => RunMessage[]): AnalysisRunner {
+  const listeners: ((m: RunMessage) => void)[] = [];
+  return {
+    kind: 'same-thread',
+    run(req) {
+      setTimeout(() => { for (const m of answer(req)) listeners.forEach((fn) => fn(m)); }, 0);
+    },
+    onMessage: (fn) => { listeners.push(fn); },
+    dispose() {},
+  };
+}
+
 function mount(): LiveStore {
   const store = createLiveStore({ throttleMs: 0 });
   render(<ResultsPanel store={store} />);
@@ -217,19 +230,10 @@ describe('results panels on the live store', () => {
   });
 
   it('a failed feedback stage is named while the figures of the first stage stay shown', async () => {
-    const listeners: ((m: RunMessage) => void)[] = [];
-    const runner: AnalysisRunner = {
-      kind: 'same-thread',
-      run(req) {
-        setTimeout(() => {
-          const result = analyze(req.netlist, { frequencyHz: req.frequencyHz, off: req.offSources, impedanceSweep: true });
-          listeners.forEach((fn) => fn({ runId: req.runId, stage: 1, result }));
-          listeners.forEach((fn) => fn({ runId: req.runId, stage: 'failed', message: 'feedback analysis: test failure' }));
-        }, 0);
-      },
-      onMessage: (fn) => { listeners.push(fn); },
-      dispose() {},
-    };
+    const runner = scriptedRunner((req) => [
+      { runId: req.runId, stage: 1, result: analyze(req.netlist, { frequencyHz: req.frequencyHz, off: req.offSources, impedanceSweep: true }) },
+      { runId: req.runId, stage: 'failed', message: 'feedback analysis: test failure' },
+    ]);
     const store = createLiveStore({ runner });
     render(<ResultsPanel store={store} />);
     act(() => store.actions.submit(rcDrawing('1p')));
@@ -240,19 +244,8 @@ describe('results panels on the live store', () => {
   });
 
   it("the engine's warnings about the figures are listed under the summary (here: a frequency it cannot use)", async () => {
-    const listeners: ((m: RunMessage) => void)[] = [];
-    const runner: AnalysisRunner = {
-      kind: 'same-thread',
-      run(req) {
-        setTimeout(() => {
-          // −5 Hz is not a frequency: the engine warns and uses its default (engine contract).
-          const result = analyze(req.netlist, { frequencyHz: -5, off: req.offSources });
-          listeners.forEach((fn) => fn({ runId: req.runId, stage: 1, result }));
-        }, 0);
-      },
-      onMessage: (fn) => { listeners.push(fn); },
-      dispose() {},
-    };
+    // −5 Hz is not a frequency: the engine warns and uses its default (engine contract).
+    const runner = scriptedRunner((req) => [{ runId: req.runId, stage: 1, result: analyze(req.netlist, { frequencyHz: -5, off: req.offSources }) }]);
     const store = createLiveStore({ runner });
     render(<ResultsPanel store={store} />);
     act(() => store.actions.submit(rcDrawing('1p')));
