@@ -102,6 +102,7 @@ describe('analyze() conditions and bad input', () => {
     expect(half.dcGain! / base.dcGain!).toBeCloseTo(0.5, 12);
   });
 
+  // The next four check input handling against the engine's own contract (types.ts), not numbers.
   it('structural errors give named issues and no numbers', () => {
     const bad = load('sensor-cs-miller.json');
     bad.parts.push({ name: 'Cfloat', kind: 'capacitor', pins: { p: 'island', n: 'island2' }, values: { value: '1p' } });
@@ -157,7 +158,7 @@ describe('analyze() conditions and bad input', () => {
     expect(hasNonFinite(r)).toBe(false);
   });
 
-  it('impedanceSweep on request: every node over the sweep grid, equal to the direct solve (one LU per f)', async () => {
+  it('impedanceSweep on request: every node over the sweep grid, equal to the direct solve (one LU per f; Kailath, partial fractions)', async () => {
     const { buildMna } = await import('../../src/engine/mna');
     const { impedancesAt } = await import('../../src/engine/analyses/impedance');
     const net = load('follower-sampling-load.json');

@@ -17,6 +17,7 @@ const rc = (r: string, c: string): Netlist => ({
 });
 
 describe('analyzeStaged: overlay first, the rest on the same factorisations', () => {
+  // Consistency with analyze() (engine contract: the staged result is the same result).
   it.each(examples)('%s: complete() equals analyze(), first carries the same poles and DC node figures', (_name, net) => {
     const whole = analyze(net);
     const staged = analyzeStaged(net);
@@ -52,7 +53,7 @@ describe('analyzeStaged: overlay first, the rest on the same factorisations', ()
     expect(s.first.conditions.frequencyHz).toBe(f);
   });
 
-  it('a structural error comes back at once from both stages, naming the node', () => {
+  it('a structural error comes back at once from both stages, naming the node (engine contract)', () => {
     const net = rc('10k', '1p');
     net.parts.push({ name: 'Cf', kind: 'capacitor', pins: { p: 'float', n: 'float2' }, values: { value: '1p' } });
     const s = analyzeStaged(net);

@@ -22,12 +22,13 @@ describe('assignment (Kuhn 1955)', () => {
     }
   });
 
-  it('rectangular: extra rows get −1', () => {
+  it('rectangular: extra rows get −1 (engine contract, matching.ts)', () => {
     const m = assign(Float64Array.from([1, 9, 9, 1, 5, 5]), 3, 2);
     expect(Array.from(m)).toEqual([0, 1, -1]);
   });
 
   it('poles are matched by nearest continuation on a log scale, not by list order', () => {
+    // Nearest on log |p| and angle, by hand (from memory: continuation keeps each pole's decade).
     const before = [{ re: -1e3, im: 0 }, { re: -1e9, im: 0 }, { re: -2e6, im: 3e6 }];
     const after = [{ re: -1.1e9, im: 0 }, { re: -2.2e6, im: 2.9e6 }, { re: -0.5e3, im: 0 }];
     expect(Array.from(matchPoles(before, after))).toEqual([2, 0, 1]);

@@ -25,7 +25,7 @@ describe('unit of the transfer gain', () => {
     expect(ii.gainUnit).toBe('A/A');
     expect(Math.abs(ii.dcGain!)).toBeCloseTo(0.25, 12);
   });
-  it('no output chosen: no unit', () => {
+  it('no output chosen: no unit (engine contract)', () => {
     const r = analyze({ format: 'polesketch-netlist', version: 1, parts: [{ name: 'V1', kind: 'vsource', pins: { p: 'a', n: '0' }, values: {} }, R('R1', 'a', '0', '1k')], input: 'V1' });
     expect(r.gainUnit).toBeNull();
   });

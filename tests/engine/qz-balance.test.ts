@@ -14,6 +14,8 @@ function wardObjective(A: Float64Array, B: Float64Array): number {
   return s;
 }
 
+// Balancing as LAPACK dggbal defines it (permutation to isolate eigenvalues, then Ward 1981
+// power-of-two scaling); the checks follow those definitions.
 describe('pencil balancing', () => {
   const n = 30;
   const p = randomNetworkPencil(n, 4711);
