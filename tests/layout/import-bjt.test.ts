@@ -5,7 +5,7 @@ import type { Netlist } from '../../src/engine/types';
 import { documentToNetlist } from '../../src/schematic/toNetlist';
 import { importNetlistText } from '../../src/layout/importNetlist';
 import { nodeElk } from '../../src/layout/elkNode';
-import { badWires, overlappingBodies, wiresThroughBodies } from './invariants';
+import { expectTidy } from './invariants';
 
 const elk = nodeElk();
 
@@ -26,9 +26,7 @@ describe('netlist import with an npn', () => {
     const r = await importNetlistText(JSON.stringify(ce), elk);
     expect(r.messages).toEqual([]);
     expect(r.ok).toBe(true);
-    expect(overlappingBodies(r.doc)).toEqual([]);
-    expect(badWires(r.doc)).toEqual([]);
-    expect(wiresThroughBodies(r.doc)).toEqual([]);
+    expectTidy(r.doc);
     const drawn = documentToNetlist(r.doc);
     expect(drawn.issues.filter((i) => i.severity === 'error')).toEqual([]);
     const q1 = drawn.netlist!.parts.find((p) => p.name === 'Q1')!;

@@ -5,7 +5,7 @@ import type { Netlist } from '../../src/engine/types';
 import { documentToNetlist } from '../../src/schematic/toNetlist';
 import { importNetlistText, netlistToDrawing } from '../../src/layout/importNetlist';
 import { nodeElk } from '../../src/layout/elkNode';
-import { badWires, overlappingBodies, wiresThroughBodies } from './invariants';
+import { expectTidy } from './invariants';
 
 const dir = new URL('../../src/examples/netlists/', import.meta.url);
 const examples = readdirSync(dir).filter((f) => f.endsWith('.json'));
@@ -19,9 +19,7 @@ describe('netlist import', () => {
     const r = await netlistToDrawing(net, elk);
     expect(r.messages).toEqual([]);
     expect(r.ok).toBe(true);
-    expect(overlappingBodies(r.doc)).toEqual([]);
-    expect(badWires(r.doc)).toEqual([]);
-    expect(wiresThroughBodies(r.doc)).toEqual([]);
+    expectTidy(r.doc);
 
     const drawn = documentToNetlist(r.doc);
     expect(drawn.issues.filter((i) => i.severity === 'error')).toEqual([]);

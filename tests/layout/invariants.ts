@@ -1,4 +1,5 @@
 // Shared checks of a laid-out drawing: symbol bodies apart, wires orthogonal and on the grid.
+import { expect } from 'vitest';
 import type { DrawingDocument } from '../../src/schematic/document';
 import { GRID } from '../../src/schematic/document';
 import { placedBounds } from '../../src/schematic/symbols';
@@ -49,4 +50,11 @@ export function wiresThroughBodies(doc: DrawingDocument): string[] {
     }
   }
   return [...new Set(out)];
+}
+
+/** A tidy drawing: no body overlaps, no off-grid or slanted wire, no wire through a body. */
+export function expectTidy(doc: DrawingDocument): void {
+  expect(overlappingBodies(doc)).toEqual([]);
+  expect(badWires(doc)).toEqual([]);
+  expect(wiresThroughBodies(doc)).toEqual([]);
 }

@@ -48,6 +48,19 @@ function scriptedRunner(answer: (req: Parameters<AnalysisRunner['run']>[0]) => R
   };
 }
 
+/** The regulated cascode example, analysed to the end (feedback included). */
+async function mountRegulatedCascode(): Promise<LiveStore> {
+  const store = mount();
+  act(() => store.actions.submit(regulatedCascode()));
+  await settled(store);
+  return store;
+}
+
+/** The loop list entry of the error amplifier's loop (key source A1.A0). */
+const regulatedCascode = () => EXAMPLE_DRAWINGS.find((e) => e.id === 'readout-cascode-regulated')!.load();
+
+const a1Loop = () => screen.getAllByTestId('loop-item').find((e) => e.getAttribute('data-key') === 'A1.A0')!;
+
 function mount(): LiveStore {
   const store = createLiveStore({ throttleMs: 0 });
   render(<ResultsPanel store={store} />);
@@ -79,25 +92,22 @@ describe('results panels on the live store', () => {
   });
 
   it('switching the regulation loop off lowers the output impedance by the regulated-cascode factor', async () => {
-    const doc = EXAMPLE_DRAWINGS.find((e) => e.id === 'readout-cascode-regulated')!.load();
-    const store = mount();
-    act(() => store.actions.submit(doc));
-    await settled(store);
+    const store = await mountRegulatedCascode();
     tab(/Nodes/);
     const zOn = si(nodeCell('out', 'node-z'));
     tab(/Loops/);
-    const item = screen.getAllByTestId('loop-item').find((e) => e.getAttribute('data-key') === 'A1.A0')!;
+    const item = a1Loop();
     expect(within(item).getByTestId('loop-holds').textContent).toMatch(/holds the current into out/);
     fireEvent.click(within(item).getByRole('switch'));
     await waitFor(() => expect(store.getState().settings.offLoopIds.length).toBe(1));
     await settled(store);
-    const offItem = screen.getAllByTestId('loop-item').find((e) => e.getAttribute('data-key') === 'A1.A0')!;
+    const offItem = a1Loop();
     expect(within(offItem).getByRole('switch').getAttribute('aria-checked')).toBe('false');
     tab(/Nodes/);
     const zOff = si(nodeCell('out', 'node-z'));
     // Regulated cascode at DC, body effect included (Razavi, Design of Analog CMOS ICs, ch. 9 form):
     // Rout = ro1 + ro2 + ro1·ro2·(gm2·(1 + A) + gmb2); with the booster off (A = 0) the plain cascode.
-    const x = expandNetlist(documentToNetlist(doc).netlist!);
+    const x = expandNetlist(documentToNetlist(regulatedCascode()).netlist!);
     const val = (part: string, role: string) => {
       const e = x.elements.find((el) => el.part === part && el.role === role)!;
       return e.type === 'vccs' ? e.gm : e.type === 'conductance' ? e.g : NaN;
@@ -110,7 +120,7 @@ describe('results panels on the live store', () => {
     expect(zOn / zOff).toBeGreaterThan(50);
     // switching it back on restores the read-out
     tab(/Loops/);
-    const again = screen.getAllByTestId('loop-item').find((e) => e.getAttribute('data-key') === 'A1.A0')!;
+    const again = a1Loop();
     fireEvent.click(within(again).getByRole('switch'));
     await waitFor(() => expect(store.getState().settings.offLoopIds.length).toBe(0));
     await settled(store);
@@ -176,12 +186,9 @@ describe('results panels on the live store', () => {
   });
 
   it('the selected loop is plotted: T(jω) with its phase margin, and the s-plane with its locus', async () => {
-    const doc = EXAMPLE_DRAWINGS.find((e) => e.id === 'readout-cascode-regulated')!.load();
-    const store = mount();
-    act(() => store.actions.submit(doc));
-    await settled(store);
+    const store = await mountRegulatedCascode();
     tab(/Loops/);
-    const item = screen.getAllByTestId('loop-item').find((e) => e.getAttribute('data-key') === 'A1.A0')!;
+    const item = a1Loop();
     fireEvent.click(within(item).getByRole('button', { name: /A1 → M2/ }));
     expect(store.getState().settings.selectedLoopId).toMatch(/^A1\.A0>/);
     const pm = within(item).getByText('PM').nextElementSibling!.textContent!;
@@ -211,12 +218,9 @@ describe('results panels on the live store', () => {
   });
 
   it('"compare with it off" pins A, breaks the loop and shows the held node before and after', async () => {
-    const doc = EXAMPLE_DRAWINGS.find((e) => e.id === 'readout-cascode-regulated')!.load();
-    const store = mount();
-    act(() => store.actions.submit(doc));
-    await settled(store);
+    const store = await mountRegulatedCascode();
     tab(/Loops/);
-    const item = screen.getAllByTestId('loop-item').find((e) => e.getAttribute('data-key') === 'A1.A0')!;
+    const item = a1Loop();
     fireEvent.click(within(item).getByRole('button', { name: /Compare with it off/ }));
     expect(store.getState().pinnedA).not.toBeNull();
     await waitFor(() => expect(store.getState().settings.offLoopIds).toHaveLength(1));
