@@ -146,7 +146,17 @@ export function shortCycles(count: number, adj: number[][], maxLen: number, maxC
   const onPath = new Uint8Array(count);
   let truncated = false;
   let found = 0;
+  // at full length only the edge back to the start can close a cycle: looked up, not searched for
+  const closes = new Uint8Array(count * count);
+  for (let v = 0; v < count; v++) for (const w of adj[v]) closes[v * count + w] = 1;
   const walk = (s: number, v: number): void => {
+    if (path.length >= maxLen && path.length >= 2) {
+      if (!closes[v * count + s]) return;
+      if (found >= maxCycles) { truncated = true; return; }
+      found++;
+      if (!keep || keep(path)) cycles.push(path.slice());
+      return;
+    }
     const next = adj[v];
     for (let t = 0; t < next.length; t++) {
       const w = next[t];

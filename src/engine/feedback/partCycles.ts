@@ -83,12 +83,13 @@ export function findPartCycles(
   const edgeNorm: (Float64Array | undefined)[] = new Array(P * P);
   const edgeMax = new Float64Array(P * P);
   const hNorm = cl.h.map((row) => row.map(frobenius));
+  const blockSq = blockNormsSquared(g, pg);
   for (let a = 0; a < P; a++) {
     for (const b of adj[a]) {
       const v = new Float64Array(F);
       let mx = 0;
       for (let fi = 0; fi < F; fi++) {
-        v[fi] = blockNorm(g, fi, pg.sourcesOf[a], pg.sourcesOf[b]) * hNorm[fi][b];
+        v[fi] = Math.sqrt(blockSq[fi][a * P + b]) * hNorm[fi][b];
         if (v[fi] > mx) mx = v[fi];
       }
       edgeNorm[a * P + b] = v;
@@ -133,11 +134,14 @@ export function findPartCycles(
     if (!(bound(cyc) > threshold)) return null;
     const gains = evaluator.gains(cyc);
     if (!gains) return null;
-    const mags = fz.map((_, fi) => Math.hypot(gains[2 * fi], gains[2 * fi + 1]));
+    const mags: number[] = new Array(F);
+    for (let fi = 0; fi < F; fi++) mags[fi] = Math.hypot(gains[2 * fi], gains[2 * fi + 1]);
     const peakIdx = peakOf(mags);
     if (!(mags[peakIdx] > threshold)) return null;
-    const { sources, pairs } = cyclePath(g, pg, cyc);
-    return { parts: cyc, sources, pairs, mags, dc: { re: gains[0], im: gains[1] }, peakIdx, folded: [] };
+    // the path (sources, pairs) is read for few of the evaluated cycles: worked out when first asked
+    let path: { sources: number[][]; pairs: [number, number][] } | null = null;
+    const pathOf = () => (path ??= cyclePath(g, pg, cyc));
+    return { parts: cyc, get sources() { return pathOf().sources; }, get pairs() { return pathOf().pairs; }, mags, dc: { re: gains[0], im: gains[1] }, peakIdx, folded: [] };
   };
   const multi: PartCycle[] = [];
   for (const cyc of found.cycles) {
@@ -237,15 +241,23 @@ function frobenius(m: { re: Float64Array; im: Float64Array } | null): number {
   return Math.sqrt(s);
 }
 
-function blockNorm(g: CouplingGraph, fi: number, from: number[], to: number[]): number {
+/** Per frequency, the squared Frobenius norm of every part-to-part block of D, [a*P + b]: each
+ *  block's entries summed in the order of its sources (row by row). */
+function blockNormsSquared(g: CouplingGraph, pg: PartGraph): Float64Array[] {
   const N = g.stamps.length;
-  const re = g.re[fi], im = g.im[fi];
-  let s = 0;
-  for (let a = 0; a < from.length; a++) {
-    const row = from[a] * N;
-    for (let b = 0; b < to.length; b++) { const r = re[row + to[b]], m = im[row + to[b]]; s += r * r + m * m; }
+  const P = pg.parts.length;
+  const partOf = pg.partOf;
+  const out: Float64Array[] = [];
+  for (let fi = 0; fi < g.fHz.length; fi++) {
+    const re = g.re[fi], im = g.im[fi];
+    const sq = new Float64Array(P * P);
+    for (let i = 0; i < N; i++) {
+      const row = i * N, base = partOf[i] * P;
+      for (let j = 0; j < N; j++) { const r = re[row + j], m = im[row + j]; sq[base + partOf[j]] += r * r + m * m; }
+    }
+    out.push(sq);
   }
-  return Math.sqrt(s);
+  return out;
 }
 
 /** Longest run of parts taken out as one detour. */

@@ -185,43 +185,51 @@ export class CycleEvaluator {
 
   /** Complex gains det(I − L) − 1 per frequency as [re0, im0, re1, im1, …]; null when not defined. */
   gains(cycle: number[]): Float64Array | null {
+    const size = this.size;
+    const len0 = cycle.length;
     let start = 0;
-    for (let k = 1; k < cycle.length; k++) if (this.size[cycle[k]] < this.size[cycle[start]]) start = k;
-    const cyc = [...cycle.slice(start), ...cycle.slice(0, start)];
-    const stepList: Float64Array[] = [];
-    for (let k = 0; k < cyc.length; k++) {
-      const s = this.step(cyc[k], cyc[(k + 1) % cyc.length]);
+    for (let k = 1; k < len0; k++) if (size[cycle[k]] < size[cycle[start]]) start = k;
+    const stepList: Float64Array[] = new Array(len0);
+    const colsOf = new Int32Array(len0);
+    for (let k = 0; k < len0; k++) {
+      const a = cycle[(start + k) % len0], b = cycle[(start + k + 1) % len0];
+      const s = this.step(a, b);
       if (!s) return null;
-      stepList.push(s);
+      stepList[k] = s;
+      colsOf[k] = size[b];
     }
-    const m = this.size[cyc[0]];
-    const out = new Float64Array(this.F * 2);
-    const L = cmatZeros(m, m);
-    for (let fi = 0; fi < this.F; fi++) {
+    const m = size[cycle[start]];
+    const F = this.F;
+    const out = new Float64Array(F * 2);
+    const L = m === 1 ? null : cmatZeros(m, m);
+    const vr = this.vr, vi = this.vi, wr = this.wr, wi = this.wi;
+    for (let fi = 0; fi < F; fi++) {
+      let l0r = 0, l0i = 0;
       for (let row = 0; row < m; row++) {
         // row vector e_row pushed through the chain of steps
-        this.vr.fill(0); this.vi.fill(0); this.vr[row] = 1;
+        vr.fill(0); vi.fill(0); vr[row] = 1;
         let len = m;
-        for (let k = 0; k < cyc.length; k++) {
-          const cols = this.size[cyc[(k + 1) % cyc.length]];
+        for (let k = 0; k < len0; k++) {
+          const cols = colsOf[k];
           const s = stepList[k];
           const base = fi * len * cols * 2;
           for (let j = 0; j < cols; j++) {
             let sr = 0, si = 0;
             for (let i = 0; i < len; i++) {
-              const er = s[base + 2 * (i * cols + j)], ei = s[base + 2 * (i * cols + j) + 1];
-              sr += this.vr[i] * er - this.vi[i] * ei;
-              si += this.vr[i] * ei + this.vi[i] * er;
+              const at = base + 2 * (i * cols + j);
+              const er = s[at], ei = s[at + 1];
+              sr += vr[i] * er - vi[i] * ei;
+              si += vr[i] * ei + vi[i] * er;
             }
-            this.wr[j] = sr; this.wi[j] = si;
+            wr[j] = sr; wi[j] = si;
           }
-          for (let j = 0; j < cols; j++) { this.vr[j] = this.wr[j]; this.vi[j] = this.wi[j]; }
+          for (let j = 0; j < cols; j++) { vr[j] = wr[j]; vi[j] = wi[j]; }
           len = cols;
         }
-        for (let j = 0; j < m; j++) { L.re[row * m + j] = this.vr[j]; L.im[row * m + j] = this.vi[j]; }
+        if (L) { for (let j = 0; j < m; j++) { L.re[row * m + j] = vr[j]; L.im[row * m + j] = vi[j]; } } else { l0r = vr[0]; l0i = vi[0]; }
       }
       let dr: number, di: number;
-      if (m === 1) { dr = 1 - L.re[0]; di = -L.im[0]; } else {
+      if (!L) { dr = 1 - l0r; di = -l0i; } else {
         const d = cmatDetInv(cmatIdentityMinus(L), false).det;
         dr = d.re; di = d.im;
       }
