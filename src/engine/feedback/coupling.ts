@@ -73,12 +73,13 @@ export function couplingGraph(sys: MnaSystem, opts: CouplingOptions = {}): Coupl
     const dIm = new Float64Array(N * N);
     for (let i = 0; i < N; i++) {
       const x = pencil.solveSparse(stamps[i].uRows, negVals[i], work);
+      const xr = x.re, xi = x.im;
       for (let j = 0; j < N; j++) {
         // the control v(cp) − v(cn) (as controlOf)
         let cr = 0, ci = 0;
         const cp = cps[j], cn = cns[j];
-        if (cp >= 0) { cr += x.re[cp]; ci += x.im[cp]; }
-        if (cn >= 0) { cr -= x.re[cn]; ci -= x.im[cn]; }
+        if (cp >= 0) { cr += xr[cp]; ci += xi[cp]; }
+        if (cn >= 0) { cr -= xr[cn]; ci -= xi[cn]; }
         const k = i * N + j;
         dRe[k] = cr;
         dIm[k] = ci;

@@ -80,24 +80,27 @@ export function findPartCycles(
   const F = fz.length;
   // (its largest value over frequency per edge gives a coarser bound first: the largest product over
   // frequency is at most the product of the edges' largest values)
-  const edgeNorm: (Float64Array | undefined)[] = new Array(P * P);
+  // edge norms in one flat array, frequency-major per edge: norms[slot[a*P + b]*F + fi]
+  const slot = new Int32Array(P * P).fill(-1);
+  let edgeCount = 0;
+  for (let a = 0; a < P; a++) for (const b of adj[a]) slot[a * P + b] = edgeCount++;
+  const norms = new Float64Array(edgeCount * F);
   const edgeMax = new Float64Array(P * P);
   const hNorm = cl.h.map((row) => row.map(frobenius));
-  const blockSq = blockNormsSquared(g, pg);
-  for (let a = 0; a < P; a++) {
-    for (const b of adj[a]) {
-      const v = new Float64Array(F);
-      let mx = 0;
-      for (let fi = 0; fi < F; fi++) {
-        v[fi] = Math.sqrt(blockSq[fi][a * P + b]) * hNorm[fi][b];
-        if (v[fi] > mx) mx = v[fi];
+  const blockSq = new Float64Array(P * P);
+  for (let fi = 0; fi < F; fi++) {
+    blockNormsSquared(g, pg, fi, blockSq);
+    const hn = hNorm[fi];
+    for (let a = 0; a < P; a++) {
+      for (const b of adj[a]) {
+        const v = Math.sqrt(blockSq[a * P + b]) * hn[b];
+        norms[slot[a * P + b] * F + fi] = v;
+        if (v > edgeMax[a * P + b]) edgeMax[a * P + b] = v;
       }
-      edgeNorm[a * P + b] = v;
-      edgeMax[a * P + b] = mx;
     }
   }
   const size = pg.sourcesOf.map((list) => list.length);
-  const edges: Float64Array[] = [];
+  const bases = new Int32Array(P + 1);
   const smallest = (cyc: number[]) => {
     let m = Infinity;
     for (const p of cyc) if (size[p] < m) m = size[p];
@@ -108,19 +111,18 @@ export function findPartCycles(
     for (let k = 0; k < cyc.length; k++) coarse *= edgeMax[cyc[k] * P + cyc[(k + 1) % cyc.length]];
     return Math.pow(1 + coarse, smallest(cyc)) - 1 > threshold;
   };
-  const bound = (cyc: number[]) => {
+  // the cycle may pass the threshold: its bound exceeds it at some frequency (the first one found
+  // decides; the per-frequency product runs along the cycle's edges in cycle order)
+  const mayPass = (cyc: number[]) => {
     const m = smallest(cyc);
-    if (!coarseOk(cyc)) return 0;
-    edges.length = 0;
-    for (let k = 0; k < cyc.length; k++) edges.push(edgeNorm[cyc[k] * P + cyc[(k + 1) % cyc.length]]!);
-    // per frequency, the product along the cycle (edges in cycle order), and its largest value
-    let b = 0;
+    if (!coarseOk(cyc)) return false;
+    for (let k = 0; k < cyc.length; k++) bases[k] = slot[cyc[k] * P + cyc[(k + 1) % cyc.length]] * F;
     for (let fi = 0; fi < F; fi++) {
       let prod = 1;
-      for (let k = 0; k < edges.length; k++) prod *= edges[k][fi];
-      if (prod > b) b = prod;
+      for (let k = 0; k < cyc.length; k++) prod *= norms[bases[k] + fi];
+      if (Math.pow(1 + prod, m) - 1 > threshold) return true;
     }
-    return Math.pow(1 + b, m) - 1;
+    return false;
   };
   // short cycles exhaustively, then Johnson's enumeration for longer ones within the budget
   // (short cycles the coarse bound rules out are not even listed)
@@ -131,7 +133,7 @@ export function findPartCycles(
   const found = { cycles: all, truncated: short.truncated || long.truncated };
   const evaluator = new CycleEvaluator(g, pg, cl);
   const evaluate = (cyc: number[]): PartCycle | null => {
-    if (!(bound(cyc) > threshold)) return null;
+    if (!mayPass(cyc)) return null;
     const gains = evaluator.gains(cyc);
     if (!gains) return null;
     const mags: number[] = new Array(F);
@@ -241,23 +243,18 @@ function frobenius(m: { re: Float64Array; im: Float64Array } | null): number {
   return Math.sqrt(s);
 }
 
-/** Per frequency, the squared Frobenius norm of every part-to-part block of D, [a*P + b]: each
- *  block's entries summed in the order of its sources (row by row). */
-function blockNormsSquared(g: CouplingGraph, pg: PartGraph): Float64Array[] {
+/** At frequency index fi, the squared Frobenius norm of every part-to-part block of D into `out`
+ *  ([a*P + b]): each block's entries summed in the order of its sources (row by row). */
+function blockNormsSquared(g: CouplingGraph, pg: PartGraph, fi: number, out: Float64Array): void {
   const N = g.stamps.length;
   const P = pg.parts.length;
   const partOf = pg.partOf;
-  const out: Float64Array[] = [];
-  for (let fi = 0; fi < g.fHz.length; fi++) {
-    const re = g.re[fi], im = g.im[fi];
-    const sq = new Float64Array(P * P);
-    for (let i = 0; i < N; i++) {
-      const row = i * N, base = partOf[i] * P;
-      for (let j = 0; j < N; j++) { const r = re[row + j], m = im[row + j]; sq[base + partOf[j]] += r * r + m * m; }
-    }
-    out.push(sq);
+  const re = g.re[fi], im = g.im[fi];
+  out.fill(0);
+  for (let i = 0; i < N; i++) {
+    const row = i * N, base = partOf[i] * P;
+    for (let j = 0; j < N; j++) { const r = re[row + j], m = im[row + j]; out[base + partOf[j]] += r * r + m * m; }
   }
-  return out;
 }
 
 /** Longest run of parts taken out as one detour. */
