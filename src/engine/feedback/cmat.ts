@@ -1,5 +1,6 @@
 // Small dense complex matrices (a few rows: the sources of one or two parts), row-major re/im.
 // Determinant and inverse by Gaussian elimination with partial pivoting (Golub & Van Loan, 3.4).
+import { hypot2 } from './cx';
 export interface CMat { rows: number; cols: number; re: Float64Array; im: Float64Array }
 
 export function cmatZeros(rows: number, cols: number): CMat {
@@ -42,9 +43,9 @@ export function cmatDetInv(a: CMat, wantInverse: boolean): { det: { re: number; 
   const inv = wantInverse ? cmatIdentity(n) : null;
   let dr = 1, di = 0;
   for (let k = 0; k < n; k++) {
-    let p = k, best = Math.hypot(re[k * n + k], im[k * n + k]);
+    let p = k, best = hypot2(re[k * n + k], im[k * n + k]);
     for (let i = k + 1; i < n; i++) {
-      const v = Math.hypot(re[i * n + k], im[i * n + k]);
+      const v = hypot2(re[i * n + k], im[i * n + k]);
       if (v > best) { best = v; p = i; }
     }
     if (best === 0) return { det: { re: 0, im: 0 }, inv: null };

@@ -11,6 +11,7 @@ import type { MnaSystem } from '../types';
 import { PencilAt, addRankOne, controlIsGround, scaledG, sourceStamps } from './pencil';
 import type { SourceStamp } from './pencil';
 import { scaleStamp } from './returnRatio';
+import { hypot2 } from './cx';
 
 export interface CouplingGraph {
   stamps: SourceStamp[];
@@ -87,7 +88,7 @@ export function couplingGraph(sys: MnaSystem, opts: CouplingOptions = {}): Coupl
         // magnitude well below the peak's cannot)
         const pk = peak[k];
         if (cr * cr + ci * ci < pk * pk * 0.999999 && outNode[k] >= 0) continue;
-        const mag = Math.hypot(cr, ci);
+        const mag = hypot2(cr, ci);
         if (mag > peak[k]) peak[k] = mag;
         if (outNode[k] < 0 && mag > 0) {
           // a pin shared by i's output and j's control is where the signal passes; else the largest
@@ -110,7 +111,7 @@ function largestOf(nodes: number[], x: { re: Float64Array; im: Float64Array }): 
   let bestMag = -1;
   for (const k of nodes) {
     if (k < 0) continue;
-    const m = Math.hypot(x.re[k], x.im[k]);
+    const m = hypot2(x.re[k], x.im[k]);
     if (m > bestMag) { bestMag = m; best = k; }
   }
   return best;

@@ -15,6 +15,7 @@ import { loopMargins } from './margins';
 import type { LoopMargins } from './margins';
 import type { Loop } from './loops';
 import { fmt } from './regulation';
+import { hypot2 } from './cx';
 
 export interface Doublet {
   pole: Cx;
@@ -49,7 +50,7 @@ export function findDoublets(sys: MnaSystem, opts: { spacing?: number; scale?: R
   zr.zeros.forEach((z, i) => {
     if (m[i] < 0) return;
     const p = poles[m[i]];
-    const spacing = Math.hypot(p.re - z.re, p.im - z.im) / p.omegaN;
+    const spacing = hypot2(p.re - z.re, p.im - z.im) / p.omegaN;
     if (spacing >= limit || z.im < 0 || p.im < 0) return; // one entry per conjugate pair
     doublets.push({ pole: { re: p.re, im: p.im }, zero: { re: z.re, im: z.im }, poleHz: p.hz, spacing, tailSeconds: 1 / Math.abs(p.re), cancels: z.cancelsPole });
   });
@@ -106,7 +107,7 @@ export function boosterChecks(
   // poles the transfer cannot see (the switched-off booster's own internal modes) are cancelled by
   // zeros; they are not the main amplifier's poles
   const zs = plain.status === 'ok' ? computeZeros(plainSys, plain.poles).zeros : [];
-  const seen = (p: Pole) => !zs.some((z) => Math.hypot(z.re - p.re, z.im - p.im) <= 1e-6 * p.omegaN);
+  const seen = (p: Pole) => !zs.some((z) => hypot2(z.re - p.re, z.im - p.im) <= 1e-6 * p.omegaN);
   const sorted: Pole[] = plain.status === 'ok' ? plain.poles.filter((p) => p.kind !== 'origin' && seen(p)).sort((a, b) => a.omegaN - b.omegaN) : [];
   const p2 = sorted.length >= 2 ? sorted[1].hz : null;
   return [...found.values()].map(({ loop, device }) => {

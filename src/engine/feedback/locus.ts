@@ -8,6 +8,7 @@ import type { Cx, MnaSystem } from '../types';
 import { computePoles } from '../analyses/poles';
 import { scaledG, sourceStamps } from './pencil';
 import { matchPoles, poleDistance } from './matching';
+import { hypot2 } from './cx';
 
 /** A pole's path; null where that pole does not exist (the finite pole count changed). */
 export interface LocusBranch { re: (number | null)[]; im: (number | null)[] }
@@ -36,7 +37,7 @@ export interface LocusOptions {
   maxSteps?: number;
 }
 
-const isRhp = (p: Cx) => p.re > 1e-9 * Math.hypot(p.re, p.im);
+const isRhp = (p: Cx) => p.re > 1e-9 * hypot2(p.re, p.im);
 const complexCount = (ps: Cx[]) => ps.filter((p) => p.im !== 0).length;
 
 export function rootLocus(sys: MnaSystem, key: string, opts: LocusOptions = {}): RootLocus {

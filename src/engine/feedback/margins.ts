@@ -8,7 +8,7 @@ import type { SourceStamp } from './pencil';
 import { ReducedPencil } from './reduced';
 import { returnRatiosAt, scaleStamp } from './returnRatio';
 import type { ReturnRatioPoint, ReturnRatioSweep } from './returnRatio';
-import { cabs, carg } from './cx';
+import { cabs, carg, hypot2 } from './cx';
 
 export interface LoopMargins {
   key: string;
@@ -94,7 +94,7 @@ function polishers(
   const agrees = ref.every((p, i) => {
     const q = fast[i](probeHz);
     if (!p.value || !q.value) return p.status === q.status;
-    return Math.hypot(p.value.re - q.value.re, p.value.im - q.value.im) <= PROBE_TOL * Math.max(cabs(p.value), 1e-12);
+    return hypot2(p.value.re - q.value.re, p.value.im - q.value.im) <= PROBE_TOL * Math.max(cabs(p.value), 1e-12);
   });
   return agrees ? fast : direct;
 }
@@ -106,7 +106,7 @@ function fromLoopTransmission(a: Cx): ReturnRatioPoint {
   const dr = 1 - a.re;
   const di = -a.im;
   const d = dr * dr + di * di;
-  const mag = Math.hypot(a.re, a.im);
+  const mag = hypot2(a.re, a.im);
   if (d <= 1e-24 * Math.max(1, mag * mag)) return { value: null, status: 'infinite' };
   return { value: { re: (a.re * dr + a.im * di) / d, im: (a.im * dr - a.re * di) / d }, status: 'ok' };
 }

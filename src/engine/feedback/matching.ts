@@ -1,17 +1,18 @@
 // Matching two pole sets: minimum-cost assignment (Hungarian method, Kuhn 1955, with the
 // shortest-augmenting-path potentials of Jonker & Volgenant 1987) on a log-distance between poles.
 import type { Cx } from '../types';
+import { hypot2 } from './cx';
 
 /** Distance between two poles on log |p| and angle, so a decade counts the same at any speed;
  *  poles at the origin are put at a floor magnitude. */
 export function poleDistance(a: Cx, b: Cx, floor = 1e-3): number {
-  const ma = Math.max(Math.hypot(a.re, a.im), floor);
-  const mb = Math.max(Math.hypot(b.re, b.im), floor);
+  const ma = Math.max(hypot2(a.re, a.im), floor);
+  const mb = Math.max(hypot2(b.re, b.im), floor);
   const da = Math.log(ma / mb);
   let dArg = Math.atan2(a.im, a.re) - Math.atan2(b.im, b.re);
   while (dArg > Math.PI) dArg -= 2 * Math.PI;
   while (dArg < -Math.PI) dArg += 2 * Math.PI;
-  return Math.hypot(da, dArg);
+  return hypot2(da, dArg);
 }
 
 /** Minimum-cost assignment of rows to columns for a rows×cols cost (row-major). Returns for each
@@ -64,7 +65,7 @@ export function matchPoles(a: Cx[], b: Cx[], maxDistance = Infinity): Int32Array
   const cost = new Float64Array(a.length * b.length);
   // magnitudes and angles once per pole; each pair then as in poleDistance (same operations)
   const floor = 1e-3;
-  const ma = a.map((p) => Math.max(Math.hypot(p.re, p.im), floor)), mb = b.map((p) => Math.max(Math.hypot(p.re, p.im), floor));
+  const ma = a.map((p) => Math.max(hypot2(p.re, p.im), floor)), mb = b.map((p) => Math.max(hypot2(p.re, p.im), floor));
   const aa = a.map((p) => Math.atan2(p.im, p.re)), ab = b.map((p) => Math.atan2(p.im, p.re));
   for (let i = 0; i < a.length; i++) {
     for (let j = 0; j < b.length; j++) {
@@ -72,7 +73,7 @@ export function matchPoles(a: Cx[], b: Cx[], maxDistance = Infinity): Int32Array
       let dArg = aa[i] - ab[j];
       while (dArg > Math.PI) dArg -= 2 * Math.PI;
       while (dArg < -Math.PI) dArg += 2 * Math.PI;
-      cost[i * b.length + j] = Math.hypot(da, dArg);
+      cost[i * b.length + j] = hypot2(da, dArg);
     }
   }
   const m = assign(cost, a.length, b.length);

@@ -17,6 +17,7 @@ import type { CouplingGraph } from './coupling';
 import { elementaryCycles, shortCycles } from './cycles';
 import { CycleEvaluator, buildPartGraph, localGain, partClosures } from './partGraph';
 import type { PartGraph } from './partGraph';
+import { hypot2 } from './cx';
 
 export const EDGE_FLOOR = 1e-9;
 /** Cycles of up to this many parts are all enumerated. */
@@ -60,7 +61,7 @@ export function findPartCycles(
   const locals: PartCycle[] = [];
   for (let p = 0; p < P; p++) {
     const gains = fz.map((_, fi) => localGain(cl, p, fi));
-    const mags = gains.map((x) => Math.hypot(x.re, x.im));
+    const mags = gains.map((x) => hypot2(x.re, x.im));
     const peakIdx = peakOf(mags);
     if (!(mags[peakIdx] > threshold)) continue;
     const inner = internalCycle(g, pg.sourcesOf[p]);
@@ -137,7 +138,7 @@ export function findPartCycles(
     const gains = evaluator.gains(cyc);
     if (!gains) return null;
     const mags: number[] = new Array(F);
-    for (let fi = 0; fi < F; fi++) mags[fi] = Math.hypot(gains[2 * fi], gains[2 * fi + 1]);
+    for (let fi = 0; fi < F; fi++) mags[fi] = hypot2(gains[2 * fi], gains[2 * fi + 1]);
     const peakIdx = peakOf(mags);
     if (!(mags[peakIdx] > threshold)) return null;
     // the path (sources, pairs) is read for few of the evaluated cycles: worked out when first asked

@@ -14,6 +14,7 @@ import type { Cx } from '../types';
 import type { CouplingGraph } from './coupling';
 import { cmatDetInv, cmatIdentityMinus, cmatMul, cmatZeros } from './cmat';
 import type { CMat } from './cmat';
+import { hypot2 } from './cx';
 
 /** Roles of the chain inside an amplifier macro (stamps/amplifier.ts). */
 export const MACRO_ROLES = ['A0', 'stage2', 'out'];
@@ -92,7 +93,7 @@ export function partClosures(g: CouplingGraph, pg: PartGraph): PartClosures {
 function closeOne(g: CouplingGraph, fi: number, i: number): { det: Cx; inv: CMat | null } {
   const N = g.stamps.length;
   const pr = 1 - g.re[fi][i * N + i], pi = -g.im[fi][i * N + i];
-  if (Math.hypot(pr, pi) === 0) return { det: { re: 0, im: 0 }, inv: null };
+  if (hypot2(pr, pi) === 0) return { det: { re: 0, im: 0 }, inv: null };
   const q = pr * pr + pi * pi;
   const inv: CMat = { rows: 1, cols: 1, re: new Float64Array([(1 * pr + 0 * pi) / q]), im: new Float64Array([(0 * pr - 1 * pi) / q]) };
   return { det: { re: 1 * pr - 0 * pi, im: 1 * pi + 0 * pr }, inv };

@@ -6,6 +6,7 @@
 import type { Cx, MnaSystem } from '../types';
 import { PencilAt, addRankOne, controlIsGround, controlOf, scaledG, sourceStamps, uVector } from './pencil';
 import type { SourceStamp } from './pencil';
+import { hypot2 } from './cx';
 
 export type ReturnRatioStatus = 'ok' | 'no-control' | 'infinite' | 'singular';
 
@@ -51,7 +52,7 @@ export function returnRatiosAt(
       const dr = 1 - a.re;
       const di = -a.im;
       const d = dr * dr + di * di;
-      const mag = Math.hypot(a.re, a.im);
+      const mag = hypot2(a.re, a.im);
       if (d <= 1e-24 * Math.max(1, mag * mag)) return { value: null, status: 'infinite' as const };
       return { value: { re: (a.re * dr + a.im * di) / d, im: (a.im * dr - a.re * di) / d }, status: 'ok' as const };
     }

@@ -10,6 +10,7 @@
 // the 2 × 2 capacitance matrix or σ is too small to trust, the caller factors the split network.
 import type { Cx } from '../types';
 import type { CVec, PencilAt, SourceStamp } from './pencil';
+import { hypot2 } from './cx';
 
 export interface BorderEntries { gb: Float64Array; cb: Float64Array; gc: Float64Array; cc: Float64Array; gd: number; cd: number }
 
@@ -141,7 +142,7 @@ function dotC(cRe: Float64Array, cIm: Float64Array, y: CVec): Cx {
 const add = (a: Cx, b: Cx): Cx => ({ re: a.re + b.re, im: a.im + b.im });
 const sub = (a: Cx, b: Cx): Cx => ({ re: a.re - b.re, im: a.im - b.im });
 const mul = (a: Cx, b: Cx): Cx => ({ re: a.re * b.re - a.im * b.im, im: a.re * b.im + a.im * b.re });
-const abs = (a: Cx): number => Math.hypot(a.re, a.im);
+const abs = (a: Cx): number => hypot2(a.re, a.im);
 function div(a: Cx, b: Cx): Cx {
   const q = b.re * b.re + b.im * b.im;
   return { re: (a.re * b.re + a.im * b.im) / q, im: (a.im * b.re - a.re * b.im) / q };
