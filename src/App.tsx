@@ -20,11 +20,10 @@ import { ResultsPanel } from './panels/ResultsPanel';
 import { useBrowserHost, type Banner } from './panels/browserHost';
 import type { LiveStore } from './live/types';
 import { AnalysisProvider } from './live/useAnalysis';
-import { useEditorAnalysis } from './live/useEditorAnalysis';
+import { useLiveSubmit } from './live/useEditorAnalysis';
+import { liveView } from './live/liveView';
 import { perfMeasure, perfNow } from './live/perfMarks';
-import { AnalysisWireLayer } from './canvas/AnalysisWireLayer';
-import { AnalysisOverlay } from './canvas/AnalysisOverlay';
-import { AnalysisHud } from './canvas/AnalysisHud';
+import { LiveSheetMarks, LiveWireLayer } from './canvas/LiveOverlay';
 import type { ElkRunner } from './layout/elkGraph';
 import { exportActions } from './export/browserExport';
 import { exportOptionsOf } from './export/liveExport';
@@ -56,7 +55,9 @@ function isTypingTarget(t: EventTarget | null): boolean {
 
 export function App({ editor, examples = [], storage = typeof localStorage === 'undefined' ? null : localStorage, analysisStore, elk }: AppProps) {
   useEditorVersion(editor);
-  const live = useEditorAnalysis(editor, analysisStore);
+  // The app does not subscribe to the analysis state: the overlay's components and the results
+  // panel do (a new result re-renders those only).
+  const store = useLiveSubmit(editor, analysisStore);
   const { state, document: doc, selection, camera, history } = editor;
   const [drafts, setDrafts] = useState<Drafts>({});
   const [showIssues, setShowIssues] = useState(true);
@@ -76,17 +77,16 @@ export function App({ editor, examples = [], storage = typeof localStorage === '
   }, [doc]);
 
   // Exports read the live state at click time: the SVG is drawn from the overlay's annotations.
-  const liveRef = useRef(live);
-  liveRef.current = live;
   const exports = useMemo(() => exportActions(
     () => editor.document,
-    () => exportOptionsOf(liveRef.current.state.settings, liveRef.current.state.loops),
+    () => exportOptionsOf(store.getState().settings, store.getState().loops),
     () => {
-      const l = liveRef.current;
-      return l.ann && l.state.result && l.state.doc === editor.document ? { annotations: l.ann, result: l.state.result } : null;
+      const s = store.getState();
+      const ann = liveView(s).ann;
+      return ann && s.result && s.doc === editor.document ? { annotations: ann, result: s.result } : null;
     },
-    () => liveRef.current.state,
-  ), [editor]);
+    () => store.getState(),
+  ), [editor, store]);
   const errors = analysis.issues.filter((i) => i.severity === 'error').length;
   const warnings = analysis.issues.length - errors;
 
@@ -120,7 +120,7 @@ export function App({ editor, examples = [], storage = typeof localStorage === '
   const title = doc.title?.trim() || 'Untitled drawing';
 
   return (
-    <AnalysisProvider store={live.store}>
+    <AnalysisProvider store={store}>
     <div className="app">
       <TopBar
         title={title} dirty={savedDoc !== doc} tool={state.tool}
@@ -161,8 +161,7 @@ export function App({ editor, examples = [], storage = typeof localStorage === '
                 ))}
               </ul>
             )}
-            <AnalysisOverlay state={live.state} ann={live.ann} camera={camera} lit={live.lit} pointer={state.cursor} pointerNet={live.pointerNet} />
-            <AnalysisHud state={live.state} actions={live.actions} ann={live.ann} />
+            <LiveSheetMarks store={store} camera={camera} pointer={state.cursor} hover={state.hover} selection={selection} />
             <div className="sheet-zoom">
               <button type="button" className="tb-btn" title="Zoom out" onClick={() => dispatch({ type: 'command', id: 'view.zoomOut' })}>−</button>
               <span className="zoom-value">{Math.round(camera.scale * 50)}%</span>
@@ -176,7 +175,7 @@ export function App({ editor, examples = [], storage = typeof localStorage === '
           <>
             <GridLayer camera={camera} width={size.width} height={size.height} />
             <PartsLayer doc={doc} selection={selection} hover={state.hover} />
-            <AnalysisWireLayer doc={doc} ann={live.ann} netOfWire={live.netOfWire} lit={live.lit} scale={camera.scale} />
+            <LiveWireLayer store={store} doc={doc} scale={camera.scale} />
             <OverlayLayer junctions={analysis.junctions} issues={analysis.issues} scale={camera.scale} showIssues={showIssues} />
             <InteractionLayer state={state} scale={camera.scale} />
           </>
@@ -189,7 +188,7 @@ export function App({ editor, examples = [], storage = typeof localStorage === '
           <h2>Drawing checks</h2>
           <IssueList issues={analysis.issues} onPick={(iss) => { if (iss.part) editor.select([iss.part as PartId]); else if (iss.wire) editor.select([iss.wire]); }} />
         </div>
-        <ResultsPanel store={live.store} analysis={analysis} />
+        <ResultsPanel store={store} analysis={analysis} />
       </aside>
       <StatusLine
         mode={state.mode} cursor={state.cursor} selected={selection.size} errors={errors} warnings={warnings}

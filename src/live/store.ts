@@ -65,9 +65,10 @@ export function createLiveStore(opts: LiveStoreOptions = {}): LiveStore {
     const runId = state.runId + 1;
     const offLoops = state.settings.offLoopIds;
     const offSources = offLoops.map((id) => state.loops[id]?.key).filter((k): k is string => !!k);
-    set({ runId, status: 'busy', stage: 0, feedbackPending: true, issues, doc, drawing, netlist: drawing.netlist, failure: null });
+    // the run goes out before the listeners hear of it (they may render the page)
     submittedAt = perfNow();
     runner.run({ runId, netlist: drawing.netlist, frequencyHz: state.settings.frequencyHz, offSources, offLoops });
+    set({ runId, status: 'busy', stage: 0, feedbackPending: true, issues, doc, drawing, netlist: drawing.netlist, failure: null });
   };
 
   const onMessage = (m: WorkerMessage) => {

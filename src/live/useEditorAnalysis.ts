@@ -1,13 +1,15 @@
-// Wires an editor to a live analysis store: every document change is submitted (drags throttled),
-// the wire under the pointer becomes the hovered net, and the overlay's data is derived once here
-// for the canvas layer, the HTML marks and the legend.
-import { useEffect, useLayoutEffect, useMemo, useRef, useState } from 'react';
-import type { Editor } from '../editor/types';
-import { liveAnnotations } from './annotateLive';
+// Wires an editor to a live analysis store. useLiveSubmit (in the app) submits every document
+// change (drags throttled) without subscribing to the store's state, so a new result does not
+// re-render the whole app; useLiveOverlay (in the overlay's own components, src/canvas/LiveOverlay)
+// subscribes, derives the overlay's data once (liveView.ts), and keeps the hovered and selected
+// net of the store in step with the wire under the pointer and the selected wire.
+import { useEffect, useLayoutEffect, useRef, useState } from 'react';
+import type { Editor, HitTarget } from '../editor/types';
+import type { ItemId } from '../schematic/document';
 import { createLiveStore } from './store';
 import type { LiveStore } from './types';
 import { useAnalysis } from './useAnalysis';
-import { netOfWire, netsOfPole } from '../canvas/overlayModel';
+import { liveView } from './liveView';
 import { arrivals, perfMeasure, perfNow } from './perfMarks';
 
 /** The given store, or one owned by the calling component (disposed when it unmounts). */
@@ -27,15 +29,15 @@ function useOwnedStore(given?: LiveStore): LiveStore {
   return given ?? own.current!;
 }
 
-export function useEditorAnalysis(editor: Editor, given?: LiveStore) {
+/** The store (given, or owned), fed with the editor's document. */
+export function useLiveSubmit(editor: Editor, given?: LiveStore): LiveStore {
   const store = useOwnedStore(given);
-  const { state, actions } = useAnalysis(store);
   const doc = editor.document;
   const dragging = editor.state.mode === 'select.moving';
 
   useEffect(() => {
-    if (store.getState().doc !== doc) actions.submit(doc, { drag: dragging });
-  }, [store, actions, doc, dragging]);
+    if (store.getState().doc !== doc) store.actions.submit(doc, { drag: dragging });
+  }, [store, doc, dragging]);
   // Submit at the edit itself, before React renders it: the worker starts on the new drawing while
   // the page is still drawing the edit (the effect above then finds it submitted).
   useEffect(() => editor.subscribe(() => {
@@ -46,51 +48,31 @@ export function useEditorAnalysis(editor: Editor, given?: LiveStore) {
   }), [editor, store]);
   // edit handed to the store → the page committed its own render of the edit
   useLayoutEffect(() => { if (arrivals.edit > 0) perfMeasure('render-edit', arrivals.edit); }, [doc]);
+  return store;
+}
 
-  const wires = useMemo(() => netOfWire(state.drawing), [state.drawing]);
-  const hover = editor.state.hover;
+/** The live state and the overlay's data; the pointer's net (a wire under the pointer with a
+ *  result) and the selected wire's net are handed to the store as hovered and selected net. */
+export function useLiveOverlay(store: LiveStore, hover: HitTarget, selection: ReadonlySet<ItemId>, track = false) {
+  const { state, actions } = useAnalysis(store);
+  const view = liveView(state);
+  const wires = view.netOfWire;
   const pointerNet = hover.type === 'wire' && state.result?.ok ? wires.get(hover.wire) ?? null : null;
-  const lastPointerNet = useRef<string | null>(null);
-  useEffect(() => {
-    if (pointerNet === lastPointerNet.current) return;
-    lastPointerNet.current = pointerNet;
-    actions.hoverNet(pointerNet);
-  }, [actions, pointerNet]);
-
-  // One wire selected on the canvas selects its net.
-  const selection = editor.selection;
   const picked = selection.size === 1 ? wires.get([...selection][0]) ?? null : null;
+  const lastPointerNet = useRef<string | null>(null);
   const lastPicked = useRef<string | null>(null);
   useEffect(() => {
-    if (picked === lastPicked.current) return;
+    if (!track || pointerNet === lastPointerNet.current) return;
+    lastPointerNet.current = pointerNet;
+    actions.hoverNet(pointerNet);
+  }, [actions, pointerNet, track]);
+  // One wire selected on the canvas selects its net.
+  useEffect(() => {
+    if (!track || picked === lastPicked.current) return;
     lastPicked.current = picked;
     actions.selectNet(picked);
-  }, [actions, picked]);
-
-  const s = state.settings;
-  // annotate() reads the result's node table and frequency only: the complete result (same node
-  // table, kept by the store) or a feedback stage that leaves the selected loop as it was draw
-  // nothing new.
-  const selectedLoop = s.selectedLoopId ? state.loops[s.selectedLoopId] : undefined;
-  const loopKey = selectedLoop ? JSON.stringify(selectedLoop) : '';
-  const ann = useMemo(
-    () => {
-      const t0 = perfNow();
-      const out = liveAnnotations(state);
-      perfMeasure('annotate', t0);
-      return out;
-    },
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-    [state.doc, state.result?.ok, state.result?.nodes, state.result?.conditions.frequencyHz, loopKey, s.frequencyHz, s.colorMode, s.selectedLoopId],
-  );
-  // stage-1 arrival → this render committed (React work of the whole tree for the new result)
-  useLayoutEffect(() => { if (arrivals.stage1 > 0) perfMeasure('render-stage1', arrivals.stage1); }, [state.result?.nodes]);
-  const lit = useMemo(() => {
-    const set = new Set(netsOfPole(state.result, s.hoveredPoleIndex));
-    if (s.hoveredNet) set.add(s.hoveredNet);
-    if (s.selectedNet) set.add(s.selectedNet);
-    return set;
-  }, [state.result, s.hoveredPoleIndex, s.hoveredNet, s.selectedNet]);
-
-  return { store, state, actions, ann, lit, netOfWire: wires, pointerNet };
+  }, [actions, picked, track]);
+  // stage-1 arrival → this render committed (React work of the overlay for the new result)
+  useLayoutEffect(() => { if (track && arrivals.stage1 > 0) perfMeasure('render-stage1', arrivals.stage1); }, [state.result?.nodes, track]);
+  return { state, actions, ...view, pointerNet };
 }

@@ -1,6 +1,7 @@
 // Right-hand results area: the live analysis (poles, node table, loops, A/B compare, plots) from the
 // analysis store (src/live). Without a store (no live analysis wired) it reports whether the drawing
 // builds into an engine netlist.
+import { memo, useDeferredValue } from 'react';
 import type { DrawingNetlist } from '../schematic/toNetlist';
 import type { LiveStore } from '../live/types';
 import { useAnalysis } from '../live/useAnalysis';
@@ -13,9 +14,15 @@ export interface ResultsPanelProps {
   initialTab?: ResultsTab;
 }
 
+const MemoResults = memo(LiveResults);
+
+// The panel follows the store at a lower priority than the canvas: React renders a new state here
+// after the overlay has taken it (in slices between frames), so the tables of a new result never
+// hold back the frame that shows it on the drawing.
 function ConnectedResults({ store, initialTab }: { store: LiveStore; initialTab?: ResultsTab }) {
   const { state, actions } = useAnalysis(store);
-  return <LiveResults state={state} actions={actions} initialTab={initialTab} />;
+  const shown = useDeferredValue(state);
+  return <MemoResults state={shown} actions={actions} initialTab={initialTab} />;
 }
 
 export function ResultsPanel({ store, analysis, initialTab }: ResultsPanelProps) {

@@ -23,9 +23,14 @@ export interface RunRequest {
   offLoops: string[];
   /** Also run stage 2 (feedback); default true. */
   feedback?: boolean;
+  /** Wait after stage 1 for a 'shown' request of this run (or a short time) before the rest. */
+  holdAfterStage1?: boolean;
 }
 
-export type WorkerRequest = RunRequest | LoopDetailRequest;
+/** The page has drawn stage 1 of run `runId`: the worker may go on with the later stages. */
+export interface ShownRequest { kind: 'shown'; runId: number }
+
+export type WorkerRequest = RunRequest | LoopDetailRequest | ShownRequest;
 
 /** `ms`: compute time of the stage inside the worker; `at`: when the worker got the request and
  *  when it posted this answer (performance.timeOrigin + now(), ms: comparable across threads).
@@ -47,6 +52,7 @@ export interface LoopDetailMessage { stage: 'loopDetail'; detail: LoopDetail; ms
 export type WorkerMessage = RunMessage | LoopDetailMessage;
 
 export const isLoopDetailRequest = (r: WorkerRequest): r is LoopDetailRequest => r.kind === 'loopDetail';
+export const isShownRequest = (r: WorkerRequest): r is ShownRequest => r.kind === 'shown';
 
 /** Runs analysis requests somewhere (a Web Worker, or the same thread as a fallback). */
 export interface AnalysisRunner {

@@ -23,7 +23,14 @@ export function createWorkerRunner(): AnalysisRunner {
   let lastRun: RunRequest | null = null;
   let lastDetail: LoopDetailRequest | null = null;
   const worker = new Worker(new URL('./analysis.worker.ts', import.meta.url), { type: 'module' });
-  worker.onmessage = (e: MessageEvent<WorkerMessage>) => emit(e.data);
+  const send = (req: WorkerRequest) => worker.postMessage(req);
+  worker.onmessage = (e: MessageEvent<WorkerMessage>) => {
+    const m = e.data;
+    emit(m);
+    // The listeners have taken stage 1 in; once the frame that shows it is done, the worker may
+    // go on with the later stages (it holds them meanwhile, see scheduler.ts).
+    if (m.stage === 1 && !fallback) afterNextFrame(() => { if (!fallback) send({ kind: 'shown', runId: m.runId }); });
+  };
   // A worker that cannot start (blocked, failed to load) hands over to the same-thread runner.
   worker.onerror = (e) => {
     e.preventDefault?.();
@@ -34,13 +41,12 @@ export function createWorkerRunner(): AnalysisRunner {
     if (lastRun) fallback.run(lastRun);
     if (lastDetail) fallback.loopDetail!(lastDetail);
   };
-  const send = (req: WorkerRequest) => worker.postMessage(req);
   return {
     get kind() { return fallback ? 'same-thread' as const : 'worker' as const; },
     run(req) {
       lastRun = req;
       if (fallback) fallback.run(req);
-      else send(req);
+      else send({ ...req, holdAfterStage1: true });
     },
     loopDetail(req) {
       lastDetail = req;
@@ -50,6 +56,13 @@ export function createWorkerRunner(): AnalysisRunner {
     onMessage: (fn) => { listeners.push(fn); },
     dispose() { worker.terminate(); fallback?.dispose(); },
   };
+}
+
+/** fn once the next frame has been drawn (a task after the frame's animation callbacks), or at
+ *  once where there are no frames. */
+function afterNextFrame(fn: () => void): void {
+  if (typeof requestAnimationFrame !== 'function') { fn(); return; }
+  requestAnimationFrame(() => setTimeout(fn, 0));
 }
 
 /** A worker runner where Worker exists, else the same-thread fallback. */

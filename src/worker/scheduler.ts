@@ -2,9 +2,14 @@
 // request can arrive): stage 1 of the newest run, then its complete result, then its stage 2
 // (each skipped once a newer run is pending), then the newest loop-detail request. Shared by the
 // worker and the same-thread fallback.
+// A run asking for it (`holdAfterStage1`) waits after stage 1 until the page says it has shown
+// that stage (a 'shown' request) or HOLD_MAX_MS pass: on a 2-core machine the later stages would
+// otherwise take a core from the page while it draws the overlay. When idle, the worker may repeat
+// stage 1 of the last run a few times (`warmCalls`): the engine's kernels are then compiled
+// (JIT) before the next edit instead of during the first dozen edits.
 import { runOverlayStage, runStage2 } from './compute';
 import { computeLoopDetail } from './loopDetail';
-import { isLoopDetailRequest, type LoopDetailRequest, type RunRequest, type WorkerMessage, type WorkerRequest } from './protocol';
+import { isLoopDetailRequest, isShownRequest, type LoopDetailRequest, type RunRequest, type WorkerMessage, type WorkerRequest } from './protocol';
 import type { AnalysisResult } from '../engine/index';
 
 export interface Scheduler {
@@ -17,15 +22,38 @@ const errText = (e: unknown) => (e instanceof Error ? e.message : String(e));
 const clock = () => (typeof performance !== 'undefined' ? performance.now() : Date.now());
 const epoch = () => (typeof performance !== 'undefined' && performance.timeOrigin ? performance.timeOrigin + performance.now() : Date.now());
 
-type Later = { req: RunRequest; next: 'complete' | 'feedback'; complete: () => AnalysisResult };
+type Later = { req: RunRequest; next: 'complete' | 'feedback'; complete: () => AnalysisResult; held: boolean };
 
-export function createScheduler(post: (msg: WorkerMessage) => void, yieldNow: (fn: () => void) => void = (fn) => setTimeout(fn, 0)): Scheduler {
+/** Longest wait for the page's 'shown' before the later stages start anyway (ms). */
+export const HOLD_MAX_MS = 60;
+
+export interface SchedulerOptions {
+  /** Idle repeats of the last run's stage 1, in all (default 0). */
+  warmCalls?: number;
+  /** Timer for the hold (tests pass their own). */
+  later?: (fn: () => void, ms: number) => unknown;
+  cancel?: (t: unknown) => void;
+}
+
+export function createScheduler(post: (msg: WorkerMessage) => void, yieldNow: (fn: () => void) => void = (fn) => setTimeout(fn, 0), opts: SchedulerOptions = {}): Scheduler {
   let pending: RunRequest | null = null;
   let pendingAt = 0;
   let later: Later | null = null;
   let detail: LoopDetailRequest | null = null;
   let busy = false;
   let stopped = false;
+  let warmLeft = opts.warmCalls ?? 0;
+  let lastOk: RunRequest | null = null;
+  let holdTimer: unknown = null;
+  const setTimer = opts.later ?? ((fn: () => void, ms: number) => setTimeout(fn, ms));
+  const clearTimer = opts.cancel ?? ((t: unknown) => clearTimeout(t as ReturnType<typeof setTimeout>));
+  const wake = () => { if (!busy && !stopped) { busy = true; yieldNow(step); } };
+  const release = (runId?: number) => {
+    if (!later || !later.held || (runId !== undefined && later.req.runId !== runId)) return;
+    later.held = false;
+    if (holdTimer !== null) { clearTimer(holdTimer); holdTimer = null; }
+    wake();
+  };
 
   const timed = <T>(fn: () => T): [T, number] => {
     const t0 = clock();
@@ -38,7 +66,12 @@ export function createScheduler(post: (msg: WorkerMessage) => void, yieldNow: (f
       const received = pendingAt;
       const [staged, ms] = timed(() => runOverlayStage(req));
       post({ runId: req.runId, stage: 1, result: staged.first, ms, at: { received, posted: epoch() } });
-      later = staged.first.ok ? { req, next: 'complete', complete: staged.complete } : null;
+      later = staged.first.ok ? { req, next: 'complete', complete: staged.complete, held: !!req.holdAfterStage1 } : null;
+      if (staged.first.ok) lastOk = req;
+      if (later?.held) {
+        const runId = req.runId;
+        holdTimer = setTimer(() => { holdTimer = null; release(runId); }, HOLD_MAX_MS);
+      }
     } catch (e) {
       post({ runId: req.runId, stage: 'failed', message: `analysis: ${errText(e)}` });
     }
@@ -71,9 +104,13 @@ export function createScheduler(post: (msg: WorkerMessage) => void, yieldNow: (f
     if (stopped) return;
     if (pending) {
       if (later) { post({ runId: later.req.runId, stage: 'dropped' }); later = null; }
+      if (holdTimer !== null) { clearTimer(holdTimer); holdTimer = null; }
       const req = pending;
       pending = null;
       stage1(req);
+    } else if (later && later.held) {
+      busy = false; // the page's 'shown' or the hold timer wakes the scheduler
+      return;
     } else if (later) {
       continueRun(later);
     } else if (detail) {
@@ -81,6 +118,9 @@ export function createScheduler(post: (msg: WorkerMessage) => void, yieldNow: (f
       detail = null;
       const [d, ms] = timed(() => computeLoopDetail(req));
       post({ stage: 'loopDetail', detail: d, ms });
+    } else if (warmLeft > 0 && lastOk) {
+      warmLeft -= 1;
+      try { runOverlayStage(lastOk); } catch { /* a warm-up call has no result to give */ }
     } else {
       busy = false;
       return;
@@ -91,6 +131,7 @@ export function createScheduler(post: (msg: WorkerMessage) => void, yieldNow: (f
   return {
     push(req) {
       if (stopped) return;
+      if (isShownRequest(req)) { release(req.runId); return; }
       if (isLoopDetailRequest(req)) detail = req;
       else {
         if (pending) post({ runId: pending.runId, stage: 'dropped' });
@@ -99,6 +140,9 @@ export function createScheduler(post: (msg: WorkerMessage) => void, yieldNow: (f
       }
       if (!busy) { busy = true; yieldNow(step); }
     },
-    stop() { stopped = true; pending = null; later = null; detail = null; },
+    stop() {
+      stopped = true; pending = null; later = null; detail = null;
+      if (holdTimer !== null) { clearTimer(holdTimer); holdTimer = null; }
+    },
   };
 }

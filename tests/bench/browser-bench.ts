@@ -2,22 +2,28 @@
 // Chromium, on an invented drawing of 60 MNA unknowns. Run: `npx tsx tests/bench/browser-bench.ts`.
 // Method: build the app, serve it (tests/browser/harness.ts), open the drawing, change one
 // resistor's value in the property panel, then alternate the top bar's Undo / Redo. Each click
-// stamps performance.now() in the page (capture listener, before the app sees it); a
-// MutationObserver stamps the first change of the overlay's badge texts/titles, and the next
-// requestAnimationFrame stamps the frame that shows it. The app's own performance measures
-// ("ps:" names, src/live/perfMarks.ts) split each edit into netlist, worker, annotate and paint.
+// stamps performance.now() in the page (capture listener, before the app sees it). Three times
+// per edit: (a) click → end of the frame that draws the edited value on the canvas (the first
+// fillText of the new value text), (b) that frame → end of the frame that shows the updated
+// overlay (a MutationObserver sees the badge texts/titles change; the wire colours are drawn in
+// the same frame), (c) click → end of the overlay frame. "End of a frame" is a MessageChannel
+// task posted from that frame's requestAnimationFrame step: it runs once the main thread has
+// done the frame's style, layout, paint and commit (common practice for timing a frame). The
+// app's own performance measures ("ps:" names, src/live/perfMarks.ts) split each edit into
+// netlist, worker, annotate and paint.
 import { readFileSync, writeFileSync } from 'node:fs';
 import { netlistToDrawing } from '../../src/layout/importNetlist';
 import { nodeElk } from '../../src/layout/elkNode';
 import { saveDrawing } from '../../src/schematic/file';
 import { documentToNetlist } from '../../src/schematic/toNetlist';
 import { analyze } from '../../src/engine/index';
-import { placedBounds } from '../../src/schematic/symbols';
+import { placedBounds, symbolOf } from '../../src/schematic/symbols';
+import { partValueText } from '../../src/canvas/partText';
 import { artifactPath, buildAndServe, HAVE_CHROMIUM, INSTALL_HINT, launchBrowser } from '../browser/harness';
 
 const EDITS = Number(process.env.BENCH_EDITS ?? 16);
-/** BENCH_PROFILE=1: an unminified build and a CPU profile of the page's main thread over the
- *  edits (Chrome DevTools Protocol), summarised as the functions with the most self time. */
+/** BENCH_PROFILE=1: an unminified build and a CPU profile of the page's main thread (Chrome
+ *  DevTools Protocol), summarised over the click → overlay-frame windows of the edits only. */
 const PROFILE = process.env.BENCH_PROFILE === '1';
 /** BENCH_TRACE=<file>: a Chromium performance trace of the edits (open it in the browser's
  *  performance panel); the main thread's time per event kind is summarised. */
@@ -48,7 +54,7 @@ function chainNetlist(stages: number) {
   };
 }
 
-interface Stamp { draws0: { fillText: number; stroke: number }; draws: { fillText: number; stroke: number }; t0: number; t1: number; t2: number; snap: string; measures: { name: string; start: number; ms: number }[]; longTasks: { start: number; ms: number }[] }
+interface Stamp { tEditDraw: number; tEditFrame: number; watch: string; draws0: { fillText: number; stroke: number }; draws: { fillText: number; stroke: number }; t0: number; t1: number; t2: number; snap: string; measures: { name: string; start: number; ms: number }[]; longTasks: { start: number; ms: number }[] }
 
 const med = (v: number[]) => { const s = [...v].sort((a, b) => a - b); return s.length ? s[Math.floor(s.length / 2)] : NaN; };
 const fmt = (v: number) => (Number.isFinite(v) ? v.toFixed(1) : '—');
@@ -68,10 +74,31 @@ async function main() {
     // tsx keeps function names with a helper the page lacks; the flag turns on the app's ps: measures
     await page.addInitScript('window.__name = (f) => f; window.POLESKETCH_PERF = true;');
     // count the canvas text and stroke calls (how much of the drawing is redrawn per edit)
+    // (before the app loads, so Konva's frame requests go through the wrapped requestAnimationFrame)
     await page.addInitScript(`(() => {
+      const raf = window.requestAnimationFrame.bind(window);
+      let inFrame = 0;
+      window.requestAnimationFrame = (cb) => raf((t) => { inFrame++; try { cb(t); } finally { inFrame--; } });
+      const mc = new MessageChannel(), queue = [];
+      mc.port1.onmessage = () => { const fn = queue.shift(); if (fn) fn(performance.now()); };
+      // fn(time) once the frame that shows what was just drawn is done on the main thread
+      window.__afterFrame = (fn) => {
+        const post = () => { queue.push(fn); mc.port2.postMessage(0); };
+        if (inFrame > 0) post(); else raf(post);
+      };
       const c = window.__draws = { fillText: 0, stroke: 0 };
       const P = CanvasRenderingContext2D.prototype;
       for (const k of ['fillText', 'stroke']) { const f = P[k]; P[k] = function (...a) { c[k]++; return f.apply(this, a); }; }
+      const fill = P.fillText;
+      P.fillText = function (text, ...rest) {
+        const b = window.__bench;
+        if (b && b.t0 && !b.tEditDraw && b.watch && text === b.watch) {
+          b.tEditDraw = performance.now();
+          performance.mark('bench:edit-drawn');
+          window.__afterFrame((t) => { b.tEditFrame = t; });
+        }
+        return fill.call(this, text, ...rest);
+      };
     })()`);
     await page.goto(served.url);
     await page.waitForSelector('canvas', { timeout: 20000 });
@@ -85,6 +112,7 @@ async function main() {
     const cam = (await page.getAttribute('[data-testid="analysis-overlay"]', 'data-camera'))!.split(',').map(Number);
     const box = (await page.locator('[data-testid="sheet"]').boundingBox())!;
     const rl = Object.values(doc.parts).find((p) => p.ref === 'RL10')!;
+    const valueText = (value: string) => partValueText({ ...rl, params: { ...rl.params, value } }, symbolOf(rl.kind));
     const bb = placedBounds(rl);
     await page.mouse.click(box.x + (bb.x + bb.width / 2) * cam[0] + cam[1], box.y + (bb.y + bb.height / 2) * cam[0] + cam[2]);
     const field = page.getByLabel(/Resistance/);
@@ -93,40 +121,56 @@ async function main() {
     await page.locator('.sheet').focus();
     await page.waitForFunction(() => !document.querySelector('.ao-busy'), undefined, { timeout: 60000 });
 
-    await page.evaluate(() => {
+    await page.evaluate((profiling) => {
       const w = window as unknown as { __bench: Stamp };
       const snap = () => {
         const root = document.querySelector('[data-testid="analysis-overlay"]');
         if (!root) return '';
-        return Array.from(root.querySelectorAll('.ao-badge, .ao-dot')).map((e) => (e as HTMLElement).innerText + '|' + (e.getAttribute('title') ?? '')).join('\n');
+        // textContent, not innerText: reading must not force a layout of the page
+        return Array.from(root.querySelectorAll('.ao-badge, .ao-dot')).map((e) => e.textContent + '|' + (e.getAttribute('title') ?? '')).join('\n');
       };
       const draws = (w as unknown as { __draws: { fillText: number; stroke: number } }).__draws;
-      w.__bench = { t0: 0, t1: 0, t2: 0, snap: snap(), measures: [], longTasks: [], draws0: { ...draws }, draws: { ...draws } };
+      w.__bench = { t0: 0, t1: 0, t2: 0, tEditDraw: 0, tEditFrame: 0, watch: '', snap: snap(), measures: [], longTasks: [], draws0: { ...draws }, draws: { ...draws } };
       // main-thread tasks over 50 ms (Long Tasks API): where the page could not answer input
       const long: { start: number; ms: number }[] = [];
       try {
         new PerformanceObserver((list) => { for (const e of list.getEntries()) long.push({ start: e.startTime, ms: e.duration }); }).observe({ type: 'longtask', buffered: false });
       } catch { /* no Long Tasks API */ }
       (w as unknown as { __long: typeof long }).__long = long;
+      // a named spin that marks the click in a CPU profile (BENCH_PROFILE)
+      const mark = { __benchClickMark() { const end = performance.now() + 0.3; while (performance.now() < end) { /* spin */ } } };
       window.addEventListener('click', () => {
+        if (profiling) mark.__benchClickMark();
         performance.clearMeasures();
-        w.__bench.t0 = performance.now(); w.__bench.t1 = 0; w.__bench.t2 = 0; w.__bench.snap = snap(); w.__bench.draws0 = { ...draws };
+        w.__bench.t0 = performance.now(); w.__bench.t1 = 0; w.__bench.t2 = 0; w.__bench.tEditDraw = 0; w.__bench.tEditFrame = 0; w.__bench.snap = snap(); w.__bench.draws0 = { ...draws };
       }, true);
+      // which elements the page changes per edit (BENCH_MUTATIONS=1 prints them)
+      const changed = new Map<string, number>();
+      (w as unknown as { __changed: typeof changed }).__changed = changed;
+      new MutationObserver((list) => {
+        if (!w.__bench.t0) return;
+        for (const m of list) {
+          const el = (m.target.nodeType === 1 ? m.target : m.target.parentElement) as Element | null;
+          const key = `${m.type}:${el?.tagName.toLowerCase() ?? '?'}.${String(el?.getAttribute('class') ?? '').split(' ')[0]}${m.attributeName ? '@' + m.attributeName : ''}`;
+          changed.set(key, (changed.get(key) ?? 0) + 1);
+        }
+      }).observe(document.body, { subtree: true, childList: true, characterData: true, attributes: true });
       new MutationObserver(() => {
         const b = w.__bench;
         if (!b.t0 || b.t1) return;
         const s = snap();
         if (s && s !== b.snap) {
           b.t1 = performance.now();
-          requestAnimationFrame(() => {
-            b.t2 = performance.now();
+          performance.mark('bench:overlay-dom');
+          (window as unknown as { __afterFrame: (fn: (t: number) => void) => void }).__afterFrame((t) => {
+            b.t2 = t;
             b.draws = { ...draws };
             b.measures = performance.getEntriesByType('measure').filter((m) => m.name.startsWith('ps:')).map((m) => ({ name: m.name, start: m.startTime - b.t0, ms: m.duration }));
             b.longTasks = (w as unknown as { __long: { start: number; ms: number }[] }).__long.filter((t) => t.start + t.ms >= b.t0 && t.start <= b.t2).map((t) => ({ start: t.start - b.t0, ms: t.ms }));
           });
         }
       }).observe(document.body, { subtree: true, childList: true, characterData: true, attributes: true, attributeFilter: ['title'] });
-    });
+    }, PROFILE);
 
     const cdp = PROFILE ? await page.context().newCDPSession(page) : null;
     if (cdp) {
@@ -135,15 +179,19 @@ async function main() {
       await cdp.send('Profiler.start');
     }
     if (TRACE) await browser.startTracing(page, { path: TRACE, categories: ['devtools.timeline', 'disabled-by-default-devtools.timeline', 'v8.execute', 'blink.user_timing'] });
-    const toOverlay: number[] = [], toFrame: number[] = [];
+    const toOverlay: number[] = [], toFrame: number[] = [], editFrame: number[] = [], editToOverlay: number[] = [], overlayPaint: number[] = [];
     const split = new Map<string, number[]>();
     const offsets = new Map<string, number[]>();
     const longSum: number[] = [];
     const texts: number[] = [], strokes: number[] = [];
     for (let i = 0; i < EDITS; i++) {
+      // the value text the edit puts on the canvas: Undo goes back to the drawn value, Redo to 7k
+      const watch = i % 2 === 0 ? valueText(rl.params.value ?? '') : valueText('7k');
+      await page.evaluate((text) => { (window as unknown as { __bench: Stamp }).__bench.watch = text; }, watch);
       await page.getByRole('button', { name: i % 2 === 0 ? 'Undo' : 'Redo', exact: true }).click();
       try {
         await page.waitForFunction(() => (window as unknown as { __bench: Stamp }).__bench.t2 > 0, undefined, { timeout: 60000 });
+        await page.waitForFunction(() => (window as unknown as { __bench: Stamp }).__bench.tEditFrame > 0, undefined, { timeout: 3000 }).catch(() => undefined);
       } catch (e) {
         await page.screenshot({ path: artifactPath('bench-timeout.png') });
         throw e;
@@ -151,6 +199,9 @@ async function main() {
       const t = await page.evaluate(() => (window as unknown as { __bench: Stamp }).__bench);
       toOverlay.push(t.t1 - t.t0);
       toFrame.push(t.t2 - t.t0);
+      editFrame.push(t.tEditFrame > 0 ? t.tEditFrame - t.t0 : NaN);
+      editToOverlay.push(t.tEditFrame > 0 ? Math.max(0, t.t2 - t.tEditFrame) : NaN);
+      overlayPaint.push(t.t2 - t.t1);
       // per edit: sum of each measure's durations that started after the click
       const sums = new Map<string, number>();
       for (const m of t.measures) {
@@ -166,15 +217,27 @@ async function main() {
       await page.waitForFunction(() => !document.querySelector('.ao-busy'), undefined, { timeout: 60000 });
     }
     if (TRACE) { await browser.stopTracing(); printTrace(TRACE, EDITS); }
+    if (process.env.BENCH_MUTATIONS === '1') {
+      const changed = await page.evaluate(() => [...(window as unknown as { __changed: Map<string, number> }).__changed]);
+      console.log('DOM mutations per edit (whole edit loop):');
+      for (const [k, n] of changed.sort((a, b) => b[1] - a[1]).slice(0, 25)) console.log(`  ${(n / EDITS).toFixed(1).padStart(7)}  ${k}`);
+    }
     if (cdp) {
       const prof = (await cdp.send('Profiler.stop')).profile as CpuProfile;
-      printProfile(prof);
+      printProfile(prof, toFrame);
       if (process.env.BENCH_PROFILE_OUT) writeFileSync(process.env.BENCH_PROFILE_OUT, JSON.stringify(prof));
     }
     // a look by eye at the overlay after the edits (zoomed in to a readable size)
     for (let i = 0; i < 4; i++) await page.locator('.sheet-zoom').getByTitle('Zoom in').click();
     await page.waitForTimeout(300);
     await page.screenshot({ path: artifactPath('bench-overlay.png') });
+    const seen = editFrame.filter(Number.isFinite);
+    const frame = 1000 / 60;
+    console.log(`(a) click → frame showing the edit:        median ${fmt(med(seen))} ms (min ${fmt(Math.min(...seen))}, max ${fmt(Math.max(...seen))}; seen in ${seen.length} of ${EDITS} edits)`);
+    const b = editToOverlay.filter(Number.isFinite);
+    console.log(`(b) edit frame → frame showing the overlay: median ${fmt(med(b))} ms (min ${fmt(Math.min(...b))}, max ${fmt(Math.max(...b))}); within one 60 Hz frame (≤ 16.7 ms) in ${b.filter((x) => x <= frame).length} of ${b.length}; same frame in ${b.filter((x) => x === 0).length}`);
+    console.log(`(c) click → frame showing the overlay:      median ${fmt(med(toFrame))} ms (min ${fmt(Math.min(...toFrame))}, max ${fmt(Math.max(...toFrame))}) = ${(med(toFrame) / frame).toFixed(1)} frames`);
+    console.log(`    overlay DOM change → end of its frame: median ${fmt(med(overlayPaint))} ms`);
     console.log(`edit → overlay DOM updated: median ${fmt(med(toOverlay))} ms (min ${fmt(Math.min(...toOverlay))}, max ${fmt(Math.max(...toOverlay))}) over ${EDITS} undo/redo clicks`);
     console.log(`edit → frame showing it:   median ${fmt(med(toFrame))} ms (min ${fmt(Math.min(...toFrame))}, max ${fmt(Math.max(...toFrame))}); ratio to one 60 Hz frame ${(med(toFrame) / (1000 / 60)).toFixed(1)}×`);
     if (split.size === 0) console.log('(no ps: performance measures recorded by this build)');
@@ -201,21 +264,43 @@ function printTrace(file: string, edits: number) {
   for (const [n, ms] of [...sums].sort((a, b) => b[1] - a[1]).slice(0, 18)) console.log(`  ${(ms / edits).toFixed(1).padStart(7)}  ${n}`);
 }
 
-interface CpuProfile { nodes: { id: number; callFrame: { functionName: string; url: string; lineNumber: number } }[]; samples: number[]; timeDeltas: number[] }
+interface CpuProfile { nodes: { id: number; callFrame: { functionName: string; url: string; lineNumber: number }; children?: number[] }[]; samples: number[]; timeDeltas: number[] }
 
-/** Self time per function (main thread, whole edit loop incl. idle waits between edits). */
-function printProfile(p: CpuProfile) {
+/** The page's click marker (a named spin of 0.3 ms in the click listener) locates each click in
+ *  the profile's own clock; only samples from a click to the end of its overlay frame count.
+ *  Prints self time and inclusive time (each function once per sample) per edit. */
+function printProfile(p: CpuProfile, windowsMs: number[]) {
   const byId = new Map(p.nodes.map((n) => [n.id, n]));
-  const self = new Map<string, number>();
+  const parent = new Map<number, number>();
+  for (const n of p.nodes) for (const c of n.children ?? []) parent.set(c, n.id);
+  const nameOf = (id: number) => { const f = byId.get(id)!.callFrame; return `${f.functionName || '(anonymous)'} ${f.url.split('/').pop()}:${f.lineNumber}`; };
+  const at: number[] = [];
+  let t = 0;
+  for (let i = 0; i < p.samples.length; i++) { t += (p.timeDeltas[i] ?? 0) / 1000; at.push(t); }
+  const clicks: number[] = [];
   p.samples.forEach((id, i) => {
-    const f = byId.get(id)!.callFrame;
-    const name = `${f.functionName || '(anonymous)'} ${f.url.split('/').pop()}:${f.lineNumber}`;
-    self.set(name, (self.get(name) ?? 0) + (p.timeDeltas[i] ?? 0) / 1000);
+    if (byId.get(id)!.callFrame.functionName !== '__benchClickMark') return;
+    if (clicks.length === 0 || at[i] - clicks[clicks.length - 1] > 5) clicks.push(at[i]);
   });
+  const inWindow = (ms: number) => clicks.some((c, k) => ms >= c && ms <= c + (windowsMs[k] ?? 0));
+  const self = new Map<string, number>(), incl = new Map<string, number>();
+  p.samples.forEach((id, i) => {
+    if (!inWindow(at[i])) return;
+    const d = (p.timeDeltas[i + 1] ?? p.timeDeltas[i] ?? 0) / 1000;
+    const name = nameOf(id);
+    self.set(name, (self.get(name) ?? 0) + d);
+    if (name.startsWith('(idle)') || name.startsWith('(program)')) return;
+    const seen = new Set<string>();
+    for (let n: number | undefined = id; n !== undefined; n = parent.get(n)) seen.add(nameOf(n));
+    for (const s of seen) incl.set(s, (incl.get(s) ?? 0) + d);
+  });
+  const per = Math.max(1, clicks.length);
   const busy = [...self].filter(([n]) => !n.startsWith('(idle)') && !n.startsWith('(program)'));
   const total = busy.reduce((s, [, ms]) => s + ms, 0);
-  console.log(`main-thread CPU profile: ${total.toFixed(0)} ms busy over the edits; top self time:`);
-  for (const [n, ms] of busy.sort((a, b) => b[1] - a[1]).slice(0, 25)) console.log(`  ${ms.toFixed(1).padStart(8)} ms  ${n}`);
+  console.log(`main-thread CPU profile, click → overlay frame of ${clicks.length} edits: ${(total / per).toFixed(1)} ms busy per edit (idle ${((self.get('(idle) :-1') ?? 0) / per).toFixed(1)}, program ${((self.get('(program) :-1') ?? 0) / per).toFixed(1)}); self time per edit:`);
+  for (const [n, ms] of busy.sort((a, b) => b[1] - a[1]).slice(0, 22)) console.log(`  ${(ms / per).toFixed(2).padStart(8)} ms  ${n}`);
+  console.log('inclusive time per edit:');
+  for (const [n, ms] of [...incl].sort((a, b) => b[1] - a[1]).slice(0, 40)) console.log(`  ${(ms / per).toFixed(2).padStart(8)} ms  ${n}`);
 }
 
 await main();

@@ -68,7 +68,14 @@ function mount(): LiveStore {
 }
 
 const tab = (name: RegExp) => fireEvent.click(screen.getByRole('tab', { name }));
-const settled = (store: LiveStore) => waitFor(() => expect(store.getState().stage).toBe(2), { timeout: 20000 });
+// the store has the run's last stage and the panel (which follows the store at a lower priority
+// than the canvas) shows that run and stage
+const settled = (store: LiveStore) => waitFor(() => {
+  const s = store.getState();
+  expect(s.stage).toBe(2);
+  const panel = screen.getByRole('region', { name: 'Results' });
+  expect([panel.getAttribute('data-run'), panel.getAttribute('data-stage')]).toEqual([String(s.runId), '2']);
+}, { timeout: 20000 });
 const firstPoleHz = () => si(screen.getAllByTestId('pole-hz')[0].textContent!);
 const nodeCell = (node: string, id: string) => {
   const row = screen.getAllByTestId('node-row').find((r) => r.getAttribute('data-node') === node)!;

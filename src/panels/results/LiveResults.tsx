@@ -115,7 +115,7 @@ export function LiveResults({ state, actions, initialTab = 'poles' }: LiveResult
     );
   }
   return (
-    <section className="results rp" aria-label="Results" aria-busy={busy}>
+    <section className="results rp" aria-label="Results" aria-busy={busy} data-run={state.runId} data-stage={state.stage}>
       <h2>Results {busy ? <span className="rp-busy" aria-live="polite" aria-label="analysing">analysing…</span> : null}</h2>
       {body}
     </section>
