@@ -1,0 +1,88 @@
+// The worker scheduler's hold after stage 1 (the later stages wait for the page's 'shown', or a
+// time limit) and its idle warm-up calls. These check the scheduler's own contract (message order,
+// what runs when); the figures themselves are checked in store.test.ts.
+import { describe, expect, test } from 'vitest';
+import { createScheduler, HOLD_MAX_MS } from '../../src/worker/scheduler';
+import type { RunRequest, WorkerMessage } from '../../src/worker/protocol';
+import { documentToNetlist } from '../../src/schematic/toNetlist';
+import { csStage, withR1 } from './fixtures';
+
+const netlistOf = (r1: string) => documentToNetlist(withR1(csStage(), r1)).netlist!;
+const req = (runId: number, r1: string, hold = true): RunRequest => ({ runId, netlist: netlistOf(r1), frequencyHz: 0, offSources: [], offLoops: [], holdAfterStage1: hold });
+const summary = (posted: WorkerMessage[]) => posted.map((p) => (p.stage === 'loopDetail' ? 'detail' : `${p.runId}:${p.stage}`));
+
+/** A scheduler with hand-driven steps and hold timer. */
+function driven(warmCalls = 0) {
+  const posted: WorkerMessage[] = [];
+  const steps: (() => void)[] = [];
+  const timers: { fn: () => void; ms: number; cleared: boolean }[] = [];
+  const sch = createScheduler((m) => posted.push(m), (fn) => steps.push(fn), {
+    warmCalls,
+    later: (fn, ms) => { const t = { fn, ms, cleared: false }; timers.push(t); return t; },
+    cancel: (t) => { (t as { cleared: boolean }).cleared = true; },
+  });
+  const drain = () => { let n = 0; while (steps.length) { steps.shift()!(); n += 1; } return n; };
+  return { sch, posted, steps, timers, drain };
+}
+
+describe('worker scheduler: hold after stage 1', () => {
+  test('the later stages wait for the page to have shown stage 1', () => {
+    const d = driven();
+    d.sch.push(req(1, '4.7k'));
+    d.drain();
+    expect(summary(d.posted)).toEqual(['1:1']);
+    expect(d.timers).toHaveLength(1);
+    expect(d.timers[0].ms).toBe(HOLD_MAX_MS);
+    d.sch.push({ kind: 'shown', runId: 2 }); // another run's: ignored
+    d.drain();
+    expect(summary(d.posted)).toEqual(['1:1']);
+    d.sch.push({ kind: 'shown', runId: 1 });
+    d.drain();
+    expect(summary(d.posted)).toEqual(['1:1', '1:complete', '1:2']);
+    expect(d.timers[0].cleared).toBe(true);
+  });
+
+  test('without word from the page they start when the hold time is up', () => {
+    const d = driven();
+    d.sch.push(req(1, '4.7k'));
+    d.drain();
+    expect(summary(d.posted)).toEqual(['1:1']);
+    d.timers[0].fn();
+    d.drain();
+    expect(summary(d.posted)).toEqual(['1:1', '1:complete', '1:2']);
+  });
+
+  test('a new run during the hold drops the held one; a run that does not ask is not held', () => {
+    const d = driven();
+    d.sch.push(req(1, '4.7k'));
+    d.drain();
+    d.sch.push(req(2, '10k', false));
+    d.drain();
+    expect(summary(d.posted)).toEqual(['1:1', '1:dropped', '2:1', '2:complete', '2:2']);
+    expect(d.timers[0].cleared).toBe(true);
+    d.timers[0].fn(); // a stale timer wakes nothing
+    expect(d.drain()).toBe(0);
+  });
+});
+
+describe('worker scheduler: idle warm-up', () => {
+  test('after a run, the idle scheduler repeats its stage 1 warmCalls times without posting', () => {
+    const d = driven(3);
+    d.sch.push(req(1, '4.7k', false));
+    const steps = d.drain();
+    // stage 1, complete, stage 2, three warm-up calls, then the step that finds nothing to do
+    expect(steps).toBe(7);
+    expect(summary(d.posted)).toEqual(['1:1', '1:complete', '1:2']);
+    d.sch.push(req(2, '10k', false));
+    expect(d.drain()).toBe(4); // no warm-up calls left
+  });
+
+  test('a request that arrives during the warm-up is served at the next step', () => {
+    const d = driven(5);
+    d.sch.push(req(1, '4.7k', false));
+    for (let i = 0; i < 4; i++) d.steps.shift()!(); // stage 1, complete, stage 2, one warm-up call
+    d.sch.push(req(2, '10k', false));
+    d.steps.shift()!();
+    expect(summary(d.posted)).toEqual(['1:1', '1:complete', '1:2', '2:1']);
+  });
+});
