@@ -6,6 +6,7 @@ import type { Cx, MnaSystem } from '../types';
 import { computePoles } from '../analyses/poles';
 import type { Pole, PoleResult } from '../analyses/poles';
 import { computeZeros } from '../analyses/zeros';
+import type { ZeroResult } from '../analyses/zeros';
 import { dcTransfer, transferEvaluator } from '../analyses/transfer';
 import { findBandwidth, logGrid, sweepTransfer } from '../analyses/frequency';
 import type { ShiftedReduction } from '../analyses/hessenberg';
@@ -35,14 +36,14 @@ export interface DoubletResult {
   doublets: Doublet[];
 }
 
-/** `poles`: the poles of the same (scaled) system when already computed. */
-export function findDoublets(sys: MnaSystem, opts: { spacing?: number; scale?: Record<string, number>; poles?: PoleResult } = {}): DoubletResult {
+/** `poles`, `zeros`: those of the same (scaled) system when already computed. */
+export function findDoublets(sys: MnaSystem, opts: { spacing?: number; scale?: Record<string, number>; poles?: PoleResult; zeros?: ZeroResult } = {}): DoubletResult {
   const limit = opts.spacing ?? 0.1;
   const G = opts.scale ? scaledG(sys, sourceStamps(sys), opts.scale) : sys.G;
   const s = { ...sys, G };
   const pr = opts.poles ?? computePoles(s);
   if (pr.status !== 'ok') return { status: 'no-convergence', reason: pr.reason, doublets: [] };
-  const zr = computeZeros(s, pr.poles);
+  const zr = opts.zeros ?? computeZeros(s, pr.poles);
   if (zr.status !== 'ok') return { status: zr.status === 'no-convergence' ? 'no-convergence' : 'no-transfer', reason: zr.reason, doublets: [] };
   const poles = pr.poles.filter((p) => p.kind !== 'origin');
   const m = matchPoles(zr.zeros, poles);
@@ -72,9 +73,11 @@ export interface BoosterCheck {
 /** Loops built around a cascode: an amplifier (the loop's key) drives a device's gate and senses
  *  its source. One check per (amplifier, device) pair, on the loop with the fewest members. */
 /** `margins`: the loops' margins by key when already computed (else each booster's are computed). */
-/** `reduction`: the shifted Hessenberg form of the network as analysed, when the caller holds it. */
+/** `reduction`: the shifted Hessenberg form of the network as analysed, when the caller holds it;
+ *  `bandwidthHz`: the closed-loop bandwidth of the chosen transfer when already found. */
 export function boosterChecks(
-  sys: MnaSystem, loops: Loop[], opts: { scale?: Record<string, number>; margins?: Map<string, LoopMargins>; reduction?: ShiftedReduction } = {},
+  sys: MnaSystem, loops: Loop[],
+  opts: { scale?: Record<string, number>; margins?: Map<string, LoopMargins>; reduction?: ShiftedReduction; bandwidthHz?: number | null } = {},
 ): BoosterCheck[] {
   const found = new Map<string, { loop: Loop; device: string }>();
   for (const loop of loops) {
@@ -101,7 +104,7 @@ export function boosterChecks(
   for (const { loop } of found.values()) allOff[loop.key] = 0;
   // main amplifier: the chosen transfer as drawn (closed-loop bandwidth), and with boosters off (its poles)
   const sysNow = { ...sys, G: scaledG(sys, stamps, base) };
-  const bw = closedLoopBandwidth(sysNow, opts.reduction);
+  const bw = opts.bandwidthHz !== undefined ? opts.bandwidthHz : closedLoopBandwidth(sysNow, opts.reduction);
   const plainSys = { ...sys, G: scaledG(sys, stamps, allOff) };
   const plain = computePoles(plainSys);
   // poles the transfer cannot see (the switched-off booster's own internal modes) are cancelled by

@@ -2,8 +2,11 @@
 // boosters, doublets and the slowest pole's sensitivities in one JSON-safe result; plus loop on/off
 // (A/B) and root locus. Every figure is a linear small-signal estimate about the entered bias point.
 import type { EngineIssue, MnaSystem, Netlist } from '../types';
+import type { AnalysisResult } from '../index';
 import { buildMna } from '../mna';
 import { computePoles } from '../analyses/poles';
+import type { PoleResult } from '../analyses/poles';
+import type { ZeroResult } from '../analyses/zeros';
 import { discoverLoops } from './loops';
 import type { Loop, LoopOptions } from './loops';
 import { loopRegulation } from './regulation';
@@ -72,6 +75,33 @@ export interface FeedbackResult {
 export interface FeedbackOptions extends LoopOptions {
   /** Loop ids, source ids ("M1.gm") or part names to switch off (their key source's gain → 0). */
   off?: string[];
+  /** Figures of the same network already worked out by the small-signal analysis (the live view
+   *  runs it first): used only when they were computed with the same sources off. */
+  known?: KnownFigures;
+}
+
+export interface KnownFigures {
+  /** Source ids that were off (gain 0) when these figures were computed. */
+  off: string[];
+  poles?: PoleResult;
+  zeros?: ZeroResult;
+  /** Closed-loop bandwidth of the chosen transfer (Hz), null when it has none. */
+  bandwidthHz?: number | null;
+}
+
+/** The figures a complete small-signal result (analyze(), computed with the sources `off`)
+ *  holds for the feedback analysis of the same network; undefined before its complete stage. */
+export function knownFigures(r: AnalysisResult, off: string[]): KnownFigures | undefined {
+  if (r.stage !== 'complete' || !r.ok) return undefined;
+  const known: KnownFigures = { off };
+  if (r.poleInfo.status === 'ok') known.poles = { poles: r.poles, infiniteCount: r.poleInfo.infiniteCount, originCount: r.poleInfo.originCount, status: 'ok' };
+  const zs = r.zeroInfo.status;
+  if (known.poles && (zs === 'ok' || zs === 'no-input' || zs === 'no-output' || zs === 'identically-zero')) {
+    known.zeros = { zeros: r.zeros, infiniteCount: r.zeroInfo.infiniteCount, status: zs, reason: r.reasons.zeros };
+  }
+  // a bandwidth the result could not find is looked for again over the feedback's own range
+  if (r.bandwidthHz !== null) known.bandwidthHz = r.bandwidthHz;
+  return known;
 }
 
 /** Map loop ids / source ids / part names to source ids; unknown names become named issues. */
@@ -107,6 +137,7 @@ export function analyzeFeedbackSystem(sys: MnaSystem, opts: FeedbackOptions = {}
     off = r.ids;
     for (const id of off) scale[id] = 0;
   }
+  const known = opts.known && sameIds(opts.known.off, off) && !Object.keys(opts.scale ?? {}).length ? opts.known : undefined;
   const d = discoverLoops(sys, { ...opts, scale });
   // the discovery's sweep of each key's return ratio serves the margins (one factor per frequency)
   // (a caller's own discovery grid may be too sparse for that: then the margins' own grid)
@@ -129,7 +160,7 @@ export function analyzeFeedbackSystem(sys: MnaSystem, opts: FeedbackOptions = {}
   const hasTransfer = sys.b.some((v) => v !== 0) && sys.c.some((v) => v !== 0);
   // one pole computation of the system as analysed serves doublets, sensitivity and step response
   const scaled = scaleSystem(sys, scale);
-  const poles = computePoles(scaled);
+  const poles = known?.poles ?? computePoles(scaled);
   const result: FeedbackResult = {
     ok: !issues.some((i) => i.severity === 'error'),
     caution: FEEDBACK_CAUTION,
@@ -140,8 +171,8 @@ export function analyzeFeedbackSystem(sys: MnaSystem, opts: FeedbackOptions = {}
     threshold: d.threshold,
     groups: d.groups,
     notes: d.notes,
-    boosters: hasTransfer ? boosterChecks(sys, d.loops, { scale, margins, reduction: reduced?.reduction }) : [],
-    doublets: hasTransfer ? findDoublets(sys, { scale, poles }) : null,
+    boosters: hasTransfer ? boosterChecks(sys, d.loops, { scale, margins, reduction: reduced?.reduction, bandwidthHz: known?.bandwidthHz }) : [],
+    doublets: hasTransfer ? findDoublets(sys, { scale, poles, zeros: known?.zeros }) : null,
     slowestPole: poleSensitivity(scaled, { poles }),
     step: hasTransfer ? stepResponse(scaled, { maxPoints: 400, poles }) : null,
   };
@@ -156,6 +187,10 @@ export function analyzeFeedback(netlist: Netlist, opts: FeedbackOptions = {}): F
   }
   const r = analyzeFeedbackSystem(built.system, opts);
   return { ...r, issues: [...built.issues.filter((i) => i.severity !== 'error'), ...r.issues] };
+}
+
+function sameIds(a: string[], b: string[]): boolean {
+  return a.length === b.length && a.every((x) => b.includes(x));
 }
 
 function scaleSystem(sys: MnaSystem, scale: Record<string, number>): MnaSystem {
