@@ -56,7 +56,9 @@ export function couplingGraph(sys: MnaSystem, opts: CouplingOptions = {}): Coupl
   const ctlNode = new Int32Array(N * N).fill(-1);
   const gminAtHz: number[] = [];
   // unit-control excitations −u, kept sparse (a source's u has one or two entries)
-  const negVals = stamps.map((s) => s.uVals.map((x) => -x));
+  // (typed arrays: one element kind whatever the values, so the solve loop below stays monomorphic)
+  const negVals = stamps.map((s) => Float64Array.from(s.uVals, (x) => -x));
+  const uRows = stamps.map((s) => Int32Array.from(s.uRows));
   const work = { re: new Float64Array(n), im: new Float64Array(n) };
   // one pair of n × n buffers for every frequency's factor (each is used up before the next)
   const lu = { re: new Float64Array(n * n), im: new Float64Array(n * n) };
@@ -73,7 +75,7 @@ export function couplingGraph(sys: MnaSystem, opts: CouplingOptions = {}): Coupl
     const dRe = new Float64Array(N * N);
     const dIm = new Float64Array(N * N);
     for (let i = 0; i < N; i++) {
-      const x = pencil.solveSparse(stamps[i].uRows, negVals[i], work);
+      const x = pencil.solveSparse(uRows[i], negVals[i], work);
       const xr = x.re, xi = x.im;
       for (let j = 0; j < N; j++) {
         // the control v(cp) − v(cn) (as controlOf)

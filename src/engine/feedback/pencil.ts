@@ -130,7 +130,7 @@ export class PencilAt {
   /** Solves M x = b for a real b with few non-zeros (a source's u vector): forward substitution
    *  starts at the first row the permuted b reaches, since L's rows above it only carry zeros
    *  (the factor's nonzero-pattern kernels of linalg/lu.ts). */
-  solveSparse(rows: number[], vals: number[], out?: CVec): CVec {
+  solveSparse(rows: ArrayLike<number>, vals: ArrayLike<number>, out?: CVec): CVec {
     const n = this.n;
     // `out`: the caller's buffers, overwritten (for many solves in a row)
     const xr = out ? out.re.fill(0) : new Float64Array(n);
