@@ -223,10 +223,11 @@ function fix(x: unknown): unknown {
     return x;
   }
   const o = x as Record<string, unknown>;
-  const keys = Object.keys(o);
-  for (let i = 0; i < keys.length; i++) {
-    const y = o[keys[i]];
-    if (typeof y === 'number' ? !Number.isFinite(y) : typeof y === 'object' && y !== null) o[keys[i]] = fix(y);
+  // for…in over the result's plain objects (own keys only: none inherits enumerable ones), without
+  // the key array Object.keys would allocate for each of its tens of thousands of objects
+  for (const k in o) {
+    const y = o[k];
+    if (typeof y === 'number' ? !Number.isFinite(y) : typeof y === 'object' && y !== null) o[k] = fix(y);
   }
   return x;
 }

@@ -87,9 +87,9 @@ export function addRankOne(G: Float64Array, n: number, s: SourceStamp, f: number
 /** Complex vector as two arrays. */
 export interface CVec { re: Float64Array; im: Float64Array }
 
-/** Factor of G + sC at s = jω (real LU at ω = 0), keeping the circuit's own diagonal pivots while
- *  their growth stays bounded (threshold pivoting, Duff, Erisman & Reid §5.4): far less fill than
- *  partial pivoting on MNA matrices, so the many solves per factor are cheaper. */
+/** Factor of G + sC at s = jω (real LU at ω = 0). Above DC the circuit's own diagonal pivots are
+ *  kept while their growth stays bounded (threshold pivoting, Duff, Erisman & Reid §5.4): far less
+ *  fill than partial pivoting on MNA matrices, so the many solves per factor are cheaper. */
 export class PencilAt {
   readonly n: number;
   readonly omega: number;
@@ -104,7 +104,9 @@ export class PencilAt {
     this.omega = omega;
     if (omega === 0) {
       if (work) work.re.set(G);
-      this.real = luReal(work ? work.re : G, n, 1e-14, !!work, undefined, CIRCUIT_PIVOT_THRESHOLD);
+      // at DC partial pivoting: it flags a network that is singular in double precision (a loop
+      // gain beyond 1/ulp) where a threshold pivot would return figures without meaning
+      this.real = work ? luReal(work.re, n, 1e-14, true) : luReal(G, n);
       this.singular = this.real.singularAt >= 0;
     } else {
       const Ai = work ? work.im : new Float64Array(n * n);
