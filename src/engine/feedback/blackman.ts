@@ -13,6 +13,7 @@ import { PencilAt, addRankOne, scaledG, sourceStamps, uVector, vVector } from '.
 import type { SourceStamp } from './pencil';
 import { scaleStamp } from './returnRatio';
 import { cabs, cadd, cdiv, cmul, csub, cx } from './cx';
+import { UNDETERMINED_CONDITION, pencilCondition } from './condition';
 
 export interface BlackmanNode {
   node: string;
@@ -32,7 +33,7 @@ export interface BlackmanNode {
 export interface BlackmanResult {
   key: string;
   fHz: number;
-  status: 'ok' | 'unknown-source' | 'singular';
+  status: 'ok' | 'unknown-source' | 'singular' | 'ill-conditioned';
   message?: string;
   tOc: Cx | null;
   nodes: BlackmanNode[];
@@ -75,6 +76,15 @@ export function blackmanAt(
   if (full.singular || cut.singular) {
     const which = full.singular ? 'the network' : `the network with ${key} removed`;
     return { key, fHz, status: 'singular', message: `${which} is singular at ${fHz} Hz (a node with no path to ground)`, tOc: null, nodes: [] };
+  }
+  // reached when the loop gain is too large for Sherman–Morrison (|T| > 1e9): with the key removed
+  // the network may be singular in all but name, and then nothing read from its factor means anything
+  const kappa = Math.max(pencilCondition(G, sys.C, n, omega, full), pencilCondition(G0, sys.C, n, omega, cut));
+  if (kappa > UNDETERMINED_CONDITION) {
+    return {
+      key, fHz, status: 'ill-conditioned', tOc: null, nodes: [],
+      message: `${key}: with it removed the network at ${fHz} Hz is too ill-conditioned (condition ≈ ${kappa.toExponential(1)}) for its impedance factors to be determined in double precision; the loop gain there is beyond 1e15`,
+    };
   }
   const u = uVector(s, n);
   const v = vVector(s, n);

@@ -129,6 +129,20 @@ export class PencilAt {
     return { re, im };
   }
 
+  /** Solves M x = b for a complex b (new arrays). */
+  solveFull(bRe: Float64Array, bIm: Float64Array): CVec {
+    if (this.real) return { re: solveReal(this.real, bRe), im: solveReal(this.real, bIm) };
+    const [re, im] = solveComplex(this.cplx!, bRe, bIm);
+    return { re, im };
+  }
+
+  /** Solves Mᴴ x = b (conjugate transpose) for a complex b (new arrays). */
+  solveAdjoint(bRe: Float64Array, bIm: Float64Array): CVec {
+    if (this.real) return { re: solveRealTransposed(this.real, bRe), im: solveRealTransposed(this.real, bIm) };
+    const [re, im] = solveComplexAdjoint(this.cplx!, bRe, bIm);
+    return { re, im };
+  }
+
   /** Solves M x = b for a real b with few non-zeros (a source's u vector): forward substitution
    *  starts at the first row the permuted b reaches, since L's rows above it only carry zeros
    *  (the factor's nonzero-pattern kernels of linalg/lu.ts). */

@@ -32,7 +32,7 @@ export interface Regulation {
   loopId: string;
   key: string;
   atHz: number;
-  status: 'ok' | 'unknown-source' | 'singular';
+  status: 'ok' | 'unknown-source' | 'singular' | 'ill-conditioned';
   message?: string;
   holdsVoltage: HeldQuantity | null;
   holdsCurrent: HeldQuantity | null;
