@@ -1,7 +1,7 @@
 // The stages of a run, as pure functions (used inside the worker and by the same-thread
 // fallback alike). Engine failures come back as result issues; nothing here throws.
 import { analyze, analyzeStaged, buildMna } from '../engine/index';
-import { analyzeFeedback, blackmanAt, type BlackmanResult, type FeedbackResult } from '../engine/feedback/index';
+import { analyzeFeedback, blackmanAt, knownFigures, type BlackmanResult, type FeedbackResult } from '../engine/feedback/index';
 import type { AnalysisResult } from '../engine/index';
 import type { RunRequest } from './protocol';
 
@@ -17,8 +17,11 @@ export function runOverlayStage(req: RunRequest): { first: AnalysisResult; compl
   return analyzeStaged(req.netlist, { frequencyHz: req.frequencyHz, off: req.offSources, impedanceSweep: true });
 }
 
-export function runStage2(req: RunRequest): { feedback: FeedbackResult; blackman: Record<string, BlackmanResult> } {
-  const feedback = analyzeFeedback(req.netlist, { off: req.offLoops });
+/** `complete`: the run's complete small-signal result, whose poles, zeros and bandwidth the
+ *  feedback analysis takes when they were computed with the same sources off. */
+export function runStage2(req: RunRequest, complete?: AnalysisResult): { feedback: FeedbackResult; blackman: Record<string, BlackmanResult> } {
+  const known = complete ? knownFigures(complete, complete.conditions.off) : undefined;
+  const feedback = analyzeFeedback(req.netlist, { off: req.offLoops, known });
   const blackman: Record<string, BlackmanResult> = {};
   if (!feedback.ok || feedback.loops.length === 0) return { feedback, blackman };
   const built = buildMna(req.netlist);

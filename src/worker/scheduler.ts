@@ -93,7 +93,8 @@ export function createScheduler(post: (msg: WorkerMessage) => void, yieldNow: (f
     }
     later = null;
     try {
-      const [{ feedback, blackman }, ms] = timed(() => runStage2(req));
+      // the complete result is already worked out (it was posted before this stage)
+      const [{ feedback, blackman }, ms] = timed(() => runStage2(req, l.complete()));
       post({ runId: req.runId, stage: 2, feedback, blackman, ms });
     } catch (e) {
       post({ runId: req.runId, stage: 'failed', message: `feedback analysis: ${errText(e)}` });
