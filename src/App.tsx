@@ -1,15 +1,16 @@
 // The main screen: top bar / parts shelf | drawing | inspector and results / status line.
 // React only renders the editor's state and forwards input to it; tools, hit-testing, snapping,
 // the camera, undo and the document rules live in src/editor and src/schematic.
-import { useCallback, useEffect, useMemo, useRef, useState, useSyncExternalStore } from 'react';
+import { memo, useCallback, useEffect, useMemo, useRef, useState, useSyncExternalStore } from 'react';
 import type { Editor, EditorEvent } from './editor/types';
 import type { DrawingDocument, PartId, SymbolKind } from './schematic/document';
 import { documentToNetlist } from './schematic/toNetlist';
 import { Sheet } from './canvas/Sheet';
 import { GridLayer } from './canvas/GridLayer';
 import { PartsLayer } from './canvas/PartsLayer';
-import { OverlayLayer, WHOLE_DRAWING_CODES } from './canvas/OverlayLayer';
-import { InteractionLayer } from './canvas/InteractionLayer';
+import { OverlayMarks, WHOLE_DRAWING_CODES } from './canvas/OverlayLayer';
+import { InteractionMarks } from './canvas/InteractionLayer';
+import { Layer } from 'react-konva';
 import { Palette } from './panels/Palette';
 import { PropertyPanel, type Drafts } from './panels/PropertyPanel';
 import { TopBar, type ExampleEntry } from './panels/TopBar';
@@ -23,7 +24,7 @@ import { AnalysisProvider } from './live/useAnalysis';
 import { useLiveSubmit } from './live/useEditorAnalysis';
 import { liveView } from './live/liveView';
 import { perfMeasure, perfNow } from './live/perfMarks';
-import { LiveSheetMarks, LiveWireLayer } from './canvas/LiveOverlay';
+import { LiveSheetMarks, LiveWireMarks } from './canvas/LiveOverlay';
 import type { ElkRunner } from './layout/elkGraph';
 import { exportActions } from './export/browserExport';
 import { exportOptionsOf } from './export/liveExport';
@@ -46,6 +47,9 @@ function useEditorVersion(editor: Editor): number {
   const subscribe = useCallback((fn: () => void) => editor.subscribe(() => { version.current += 1; fn(); }), [editor]);
   return useSyncExternalStore(subscribe, () => version.current, () => version.current);
 }
+
+// The parts shelf draws every symbol: kept from re-rendering on each edit (its callbacks are stable).
+const Shelf = memo(Palette);
 
 function isTypingTarget(t: EventTarget | null): boolean {
   const el = t as HTMLElement | null;
@@ -115,6 +119,14 @@ export function App({ editor, examples = [], storage = typeof localStorage === '
 
   const onSize = useCallback((s: { width: number; height: number }) => dispatch({ type: 'viewport', width: s.width, height: s.height }), [dispatch]);
 
+  const dragKindRef = useRef(dragKind);
+  dragKindRef.current = dragKind;
+  const onArm = useCallback((kind: SymbolKind) => dispatch({ type: 'tool', tool: 'place', kind }), [dispatch]);
+  const onShelfDragStart = useCallback((kind: SymbolKind) => { setDragKind(kind); dispatch({ type: 'tool', tool: 'place', kind, once: true }); }, [dispatch]);
+  const onShelfDragEnd = useCallback(() => {
+    if (dragKindRef.current) { setDragKind(null); if (editor.state.tool === 'place') dispatch({ type: 'cancel' }); }
+  }, [dispatch, editor]);
+
   const armed = state.tool === 'place' && state.ghost ? state.ghost.kind : null;
   const cursorStyle = state.mode === 'pan.dragging' ? 'grabbing' : state.tool === 'wire' || state.tool === 'place' ? 'crosshair' : state.hover.type === 'none' ? 'default' : 'pointer';
   const title = doc.title?.trim() || 'Untitled drawing';
@@ -131,12 +143,7 @@ export function App({ editor, examples = [], storage = typeof localStorage === '
         canTidy
         onExportSvg={exports.onExportSvg} onExportReport={exports.onExportReport} onExportPlots={exports.onExportPlots}
       />
-      <Palette
-        armed={dragKind ?? armed}
-        onArm={(kind) => dispatch({ type: 'tool', tool: 'place', kind })}
-        onDragStart={(kind) => { setDragKind(kind); dispatch({ type: 'tool', tool: 'place', kind, once: true }); }}
-        onDragEnd={() => { if (dragKind) { setDragKind(null); if (editor.state.tool === 'place') dispatch({ type: 'cancel' }); } }}
-      />
+      <Shelf armed={dragKind ?? armed} onArm={onArm} onDragStart={onShelfDragStart} onDragEnd={onShelfDragEnd} />
       <Sheet
         camera={camera} onEvent={dispatch} onSize={onSize} cursor={cursorStyle}
         onPartDragOver={(w, s) => dispatch({ type: 'pointerMove', x: w.x, y: w.y, sx: s.x, sy: s.y })}
@@ -174,10 +181,12 @@ export function App({ editor, examples = [], storage = typeof localStorage === '
         {(size) => (
           <>
             <GridLayer camera={camera} width={size.width} height={size.height} />
-            <PartsLayer doc={doc} selection={selection} hover={state.hover} />
-            <LiveWireLayer store={store} doc={doc} scale={camera.scale} />
-            <OverlayLayer junctions={analysis.junctions} issues={analysis.issues} scale={camera.scale} showIssues={showIssues} />
-            <InteractionLayer state={state} scale={camera.scale} />
+            <PartsLayer doc={doc} selection={selection} hover={state.hover} wireMarks={<LiveWireMarks store={store} doc={doc} scale={camera.scale} />} />
+            {/* one canvas for the junctions, issue marks and the pointer's marks */}
+            <Layer listening={false}>
+              <OverlayMarks junctions={analysis.junctions} issues={analysis.issues} scale={camera.scale} showIssues={showIssues} />
+              <InteractionMarks state={state} scale={camera.scale} />
+            </Layer>
           </>
         )}
       </Sheet>

@@ -1,8 +1,9 @@
-// Konva layer of the live analysis: wires coloured per net (annotate() colours), a halo on nets
+// Konva marks of the live analysis: wires coloured per net (annotate() colours), a halo on nets
 // lit by a hovered pole or the selected net, the selected loop's path with direction arrows, and
-// a ring on the slowest node. Drawn above the parts layer; it never takes pointer input.
+// a ring on the slowest node. A group drawn in the wire layer over the plain wires (PartsLayer's
+// wireMarks); it never takes pointer input.
 import { memo, useMemo } from 'react';
-import { Arrow, Circle, Group, Layer, Line } from 'react-konva';
+import { Arrow, Circle, Group, Line } from 'react-konva';
 import type { DrawingDocument, WireRecord } from '../schematic/document';
 import type { SchematicAnnotations } from '../export/annotations';
 import { INK } from './theme';
@@ -49,12 +50,12 @@ const SlowestRing = memo(function SlowestRing({ x, y, k }: { x: number; y: numbe
   );
 });
 
-function AnalysisWireLayerView({ doc, ann, netOfWire, lit, scale }: Props) {
+function AnalysisWireMarksView({ doc, ann, netOfWire, lit, scale }: Props) {
   if (!ann) return null;
   const k = 1 / Math.max(scale, 0.3);
   const wires = Object.values(doc.wires);
   return (
-    <Layer listening={false}>
+    <Group listening={false}>
       {lit.size > 0 && wires.filter((w) => lit.has(netOfWire.get(w.id) ?? '')).map((w) => <LitWire key={`lit:${w.id}`} wire={w} k={k} />)}
       {wires.map((w) => {
         const mark = ann.nets[netOfWire.get(w.id) ?? ''];
@@ -62,7 +63,7 @@ function AnalysisWireLayerView({ doc, ann, netOfWire, lit, scale }: Props) {
       })}
       {ann.slowest && <SlowestRing x={ann.slowest.anchor.x} y={ann.slowest.anchor.y} k={k} />}
       {ann.loop && <LoopPath points={ann.loop.points} k={k} />}
-    </Layer>
+    </Group>
   );
 }
 
@@ -91,4 +92,4 @@ function LoopPathView({ points, k }: { points: { x: number; y: number }[]; k: nu
 
 const LoopPath = memo(LoopPathView);
 
-export const AnalysisWireLayer = memo(AnalysisWireLayerView);
+export const AnalysisWireMarks = memo(AnalysisWireMarksView);

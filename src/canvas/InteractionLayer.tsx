@@ -1,7 +1,8 @@
-// Interaction layer, redrawn on every pointer move: the part following the pointer, the wire
-// being drawn, the rubber-band box and a small cursor cross on the snapped grid point.
+// Interaction marks, redrawn on every pointer move: the part following the pointer, the wire
+// being drawn, the rubber-band box and a small cursor cross on the snapped grid point. A group in
+// the top Konva layer (shared with the junctions and issue marks, OverlayLayer.tsx).
 import { memo } from 'react';
-import { Circle, Layer, Line, Rect } from 'react-konva';
+import { Circle, Group, Line, Rect } from 'react-konva';
 import type { EditorState } from '../editor/types';
 import { symbolOf } from '../schematic/symbols';
 import { SymbolView } from './SymbolView';
@@ -11,7 +12,7 @@ function InteractionLayerView({ state, scale }: { state: EditorState; scale: num
   const k = 1 / Math.max(scale, 0.3);
   const { ghost, wirePreview, box, cursor, hover } = state;
   return (
-    <Layer listening={false}>
+    <Group listening={false}>
       {ghost && (
         <SymbolView symbol={symbolOf(ghost.kind)} x={ghost.x} y={ghost.y} rotation={ghost.rotation} mirror={ghost.mirror} color={GHOST} opacity={0.55} />
       )}
@@ -27,8 +28,8 @@ function InteractionLayerView({ state, scale }: { state: EditorState; scale: num
       {cursor && (state.tool === 'wire' || state.tool === 'place') && (
         <Line points={[cursor.x - 4, cursor.y, cursor.x + 4, cursor.y, cursor.x, cursor.y, cursor.x, cursor.y - 4, cursor.x, cursor.y + 4]} stroke={SELECTED} strokeWidth={k} listening={false} />
       )}
-    </Layer>
+    </Group>
   );
 }
 
-export const InteractionLayer = memo(InteractionLayerView);
+export const InteractionMarks = memo(InteractionLayerView);

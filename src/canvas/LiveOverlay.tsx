@@ -1,7 +1,7 @@
 // The live analysis on the sheet, as components that subscribe to the analysis store themselves:
 // a new result (or a busy flag) re-renders these and not the app around them. LiveSheetMarks is
-// the HTML part (badges, read-out, faults, legend and busy indicator), LiveWireLayer the Konva
-// layer of coloured wires inside the stage. Both read the same derived data (live/liveView.ts).
+// the HTML part (badges, read-out, faults, legend and busy indicator), LiveWireMarks the Konva
+// group of coloured wires (drawn in the wire layer, see PartsLayer's wireMarks). Both read the same derived data (live/liveView.ts).
 import { memo } from 'react';
 import type { HitTarget } from '../editor/types';
 import type { DrawingDocument, ItemId } from '../schematic/document';
@@ -12,7 +12,7 @@ import { liveView } from '../live/liveView';
 import type { Camera, Point } from './camera';
 import { AnalysisOverlay } from './AnalysisOverlay';
 import { AnalysisHud } from './AnalysisHud';
-import { AnalysisWireLayer } from './AnalysisWireLayer';
+import { AnalysisWireMarks } from './AnalysisWireLayer';
 
 interface MarksProps {
   store: LiveStore;
@@ -33,8 +33,8 @@ export const LiveSheetMarks = memo(function LiveSheetMarks({ store, camera, poin
   );
 });
 
-export const LiveWireLayer = memo(function LiveWireLayer({ store, doc, scale }: { store: LiveStore; doc: DrawingDocument; scale: number }) {
+export const LiveWireMarks = memo(function LiveWireMarks({ store, doc, scale }: { store: LiveStore; doc: DrawingDocument; scale: number }) {
   const { state } = useAnalysis(store);
   const view = liveView(state);
-  return <AnalysisWireLayer doc={doc} ann={view.ann} netOfWire={view.netOfWire} lit={view.lit} scale={scale} />;
+  return <AnalysisWireMarks doc={doc} ann={view.ann} netOfWire={view.netOfWire} lit={view.lit} scale={scale} />;
 });

@@ -1,8 +1,7 @@
-// Overlay: junction dots and drawing errors marked where they occur. Kept as its own layer so the
-// live analysis marks (wire colours by impedance, badges, loops) can join it later without
-// redrawing parts and wires.
+// Overlay: junction dots and drawing errors marked where they occur. A group: it shares the top
+// Konva layer with the interaction marks (InteractionLayer.tsx), one canvas for both.
 import { memo } from 'react';
-import { Circle, Group, Layer, Line, Rect, Text } from 'react-konva';
+import { Circle, Group, Line, Rect, Text } from 'react-konva';
 import type { Point } from '../schematic/document';
 import type { DrawingIssue } from '../schematic/drawingChecks';
 import { ERROR, JUNCTION_RADIUS, WARN, WIRE } from './theme';
@@ -66,15 +65,15 @@ interface Props {
 
 function OverlayLayerView({ junctions, issues, scale, showIssues }: Props) {
   return (
-    <Layer listening={false}>
+    <Group listening={false}>
       {junctions.map((j) => (
         <Circle key={`${j.x},${j.y}`} x={j.x} y={j.y} radius={JUNCTION_RADIUS} fill={WIRE} perfectDrawEnabled={false} listening={false} />
       ))}
       {showIssues && stackMarks(issues.filter((i) => !WHOLE_DRAWING_CODES.has(i.code))).map(({ issue, stack }, i) => (
         <IssueMark key={`${issue.code}:${issue.part ?? issue.wire ?? issue.net ?? ''}:${issue.pin ?? ''}:${i}`} issue={issue} scale={scale} stack={stack} />
       ))}
-    </Layer>
+    </Group>
   );
 }
 
-export const OverlayLayer = memo(OverlayLayerView);
+export const OverlayMarks = memo(OverlayLayerView);

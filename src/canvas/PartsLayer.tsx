@@ -1,7 +1,8 @@
 // Parts and wires of the document. Records are immutable (immer), so memoised views redraw only
 // the records that changed, and the selection changes only the colour prop of the items it touches.
 // The wires and the parts are drawn on separate layers, the parts on a few (see PARTS_PER_LAYER).
-import { memo } from 'react';
+// The wire layer also holds the live analysis colours of the wires (wireMarks), drawn over them.
+import { memo, type ReactElement } from 'react';
 import { Layer, Line } from 'react-konva';
 import type { DrawingDocument, ItemId, PartRecord, WireRecord } from '../schematic/document';
 import { symbolOf } from '../schematic/symbols';
@@ -38,15 +39,20 @@ interface Props {
   doc: DrawingDocument;
   selection: ReadonlySet<ItemId>;
   hover: HitTarget;
+  /** Drawn in the wire layer above the plain wires (the analysis colours): one canvas less. */
+  wireMarks?: ReactElement | null;
 }
 
 type ItemState = 'plain' | 'hover' | 'selected';
 
 /** Parts per Konva layer. Konva redraws a whole layer when one of its shapes changes, so the
  *  parts are spread over a few layers (each its own canvas): a value edit or a selection redraws
- *  the layer holding that part only, not all the symbols and their texts. */
-export const PARTS_PER_LAYER = 40;
-const MAX_PART_LAYERS = 8;
+ *  the layer holding that part only, not all the symbols and their texts. Few layers, though:
+ *  every canvas is a compositor layer the size of the sheet, and in the 2-core headless bench
+ *  (tests/bench/browser-bench.ts, 252 parts) 4 part layers gave a faster edit → overlay frame
+ *  than 7 or 16, although each redraws more parts. */
+export const PARTS_PER_LAYER = 64;
+const MAX_PART_LAYERS = 4;
 
 const sameItems = <T,>(a: { items: T[]; states: ItemState[] }, b: { items: T[]; states: ItemState[] }) =>
   a.items.length === b.items.length && a.items.every((x, i) => x === b.items[i] && a.states[i] === b.states[i]);
@@ -55,11 +61,11 @@ const PartChunk = memo(function PartChunk({ items, states }: { items: PartRecord
   return <Layer listening={false}>{items.map((p, i) => <PartView key={p.id} part={p} state={states[i]} />)}</Layer>;
 }, sameItems);
 
-const WireChunk = memo(function WireChunk({ items, states }: { items: WireRecord[]; states: ItemState[] }) {
-  return <Layer listening={false}>{items.map((w, i) => <WireView key={w.id} wire={w} state={states[i]} />)}</Layer>;
+const WireItems = memo(function WireItems({ items, states }: { items: WireRecord[]; states: ItemState[] }) {
+  return <>{items.map((w, i) => <WireView key={w.id} wire={w} state={states[i]} />)}</>;
 }, sameItems);
 
-function PartsLayerView({ doc, selection, hover }: Props) {
+function PartsLayerView({ doc, selection, hover, wireMarks }: Props) {
   const hoverId = hover.type === 'part' || hover.type === 'pin' ? hover.part : hover.type === 'wire' ? hover.wire : null;
   const stateOf = (id: ItemId): ItemState => (selection.has(id) ? 'selected' : id === hoverId ? 'hover' : 'plain');
   const wires = Object.values(doc.wires);
@@ -69,10 +75,23 @@ function PartsLayerView({ doc, selection, hover }: Props) {
   for (let i = 0; i < parts.length; i += size) chunks.push(parts.slice(i, i + size));
   return (
     <>
-      <WireChunk items={wires} states={wires.map((w) => stateOf(w.id))} />
+      <Layer listening={false}>
+        <WireItems items={wires} states={wires.map((w) => stateOf(w.id))} />
+        {wireMarks ?? null}
+      </Layer>
       {chunks.map((c, k) => <PartChunk key={k} items={c} states={c.map((p) => stateOf(p.id))} />)}
     </>
   );
 }
 
-export const PartsLayer = memo(PartsLayerView);
+/** Same element type and shallowly equal props (the wire marks are made anew on each render). */
+const sameElement = (a: ReactElement | null | undefined, b: ReactElement | null | undefined) => {
+  if (!a || !b) return a === b;
+  if (a.type !== b.type || a.key !== b.key) return false;
+  const pa = a.props as Record<string, unknown>, pb = b.props as Record<string, unknown>;
+  const ka = Object.keys(pa), kb = Object.keys(pb);
+  return ka.length === kb.length && ka.every((k) => Object.is(pa[k], pb[k]));
+};
+
+export const PartsLayer = memo(PartsLayerView, (a, b) =>
+  a.doc === b.doc && a.selection === b.selection && a.hover === b.hover && sameElement(a.wireMarks, b.wireMarks));

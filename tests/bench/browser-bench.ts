@@ -86,6 +86,10 @@ async function main() {
         const post = () => { queue.push(fn); mc.port2.postMessage(0); };
         if (inFrame > 0) post(); else raf(post);
       };
+      // time the page spends handing requests to the worker (structured clone of the netlist)
+      const wp = Worker.prototype.postMessage;
+      window.__postMs = 0;
+      Worker.prototype.postMessage = function (...a) { const t = performance.now(); try { return wp.apply(this, a); } finally { window.__postMs += performance.now() - t; } };
       const c = window.__draws = { fillText: 0, stroke: 0 };
       const P = CanvasRenderingContext2D.prototype;
       for (const k of ['fillText', 'stroke']) { const f = P[k]; P[k] = function (...a) { c[k]++; return f.apply(this, a); }; }
@@ -182,12 +186,12 @@ async function main() {
     const toOverlay: number[] = [], toFrame: number[] = [], editFrame: number[] = [], editToOverlay: number[] = [], overlayPaint: number[] = [];
     const split = new Map<string, number[]>();
     const offsets = new Map<string, number[]>();
-    const longSum: number[] = [];
+    const longSum: number[] = [], posts: number[] = [];
     const texts: number[] = [], strokes: number[] = [];
     for (let i = 0; i < EDITS; i++) {
       // the value text the edit puts on the canvas: Undo goes back to the drawn value, Redo to 7k
       const watch = i % 2 === 0 ? valueText(rl.params.value ?? '') : valueText('7k');
-      await page.evaluate((text) => { (window as unknown as { __bench: Stamp }).__bench.watch = text; }, watch);
+      const post0 = await page.evaluate((text) => { (window as unknown as { __bench: Stamp }).__bench.watch = text; return (window as unknown as { __postMs: number }).__postMs; }, watch);
       await page.getByRole('button', { name: i % 2 === 0 ? 'Undo' : 'Redo', exact: true }).click();
       try {
         await page.waitForFunction(() => (window as unknown as { __bench: Stamp }).__bench.t2 > 0, undefined, { timeout: 60000 });
@@ -211,12 +215,34 @@ async function main() {
       }
       for (const [name, ms] of sums) split.set(name, [...(split.get(name) ?? []), ms]);
       longSum.push(t.longTasks.reduce((s2, x) => s2 + x.ms, 0));
+      posts.push((await page.evaluate(() => (window as unknown as { __postMs: number }).__postMs)) - post0);
       texts.push(t.draws.fillText - t.draws0.fillText);
       strokes.push(t.draws.stroke - t.draws0.stroke);
       // the feedback stage must not overlap the next click's clock
       await page.waitForFunction(() => !document.querySelector('.ao-busy'), undefined, { timeout: 60000 });
     }
     if (TRACE) { await browser.stopTracing(); printTrace(TRACE, EDITS); }
+    if (process.env.BENCH_LAYERS === '1') {
+      // the compositor's layers of the page (each is pushed to the compositor at every commit)
+      const lt = await page.context().newCDPSession(page);
+      const got = new Promise<{ layers?: { layerId: string; width: number; height: number; drawsContent: boolean; backendNodeId?: number }[] }>((r) => lt.on('LayerTree.layerTreeDidChange', r));
+      await lt.send('LayerTree.enable');
+      await page.evaluate(() => new Promise((r) => requestAnimationFrame(() => r(0))));
+      const layers = (await got).layers ?? [];
+      const drawing = layers.filter((l) => l.drawsContent);
+      console.log(`compositor layers: ${layers.length} (${drawing.length} draw content); largest:`);
+      for (const l of [...drawing].sort((a, b) => b.width * b.height - a.width * a.height).slice(0, Number(process.env.BENCH_LAYERS_SHOW ?? 8))) {
+        let what = '';
+        if (l.backendNodeId) {
+          try {
+            const { object } = await lt.send('DOM.resolveNode', { backendNodeId: l.backendNodeId }) as { object: { objectId: string } };
+            const r = await lt.send('Runtime.callFunctionOn', { objectId: object.objectId, functionDeclaration: 'function () { return this.nodeName + "." + (this.className || "") }', returnByValue: true }) as { result: { value: string } };
+            what = r.result.value;
+          } catch { /* a node without a DOM element */ }
+        }
+        console.log(`  ${l.width}×${l.height} ${what}`);
+      }
+    }
     if (process.env.BENCH_MUTATIONS === '1') {
       const changed = await page.evaluate(() => [...(window as unknown as { __changed: Map<string, number> }).__changed]);
       console.log('DOM mutations per edit (whole edit loop):');
@@ -245,6 +271,7 @@ async function main() {
       console.log(`  ${name.padEnd(20)} median ${fmt(med(v))} ms (min ${fmt(Math.min(...v))}, max ${fmt(Math.max(...v))}, ${v.length} edits); starts ${fmt(med(offsets.get(name) ?? []))} ms after the click`);
     }
     console.log(`  canvas calls per edit (click → frame): fillText median ${med(texts)}, stroke median ${med(strokes)}`);
+    console.log(`  Worker.postMessage on the page per edit: median ${fmt(med(posts))} ms`);
     console.log(`  main-thread long tasks (> 50 ms) per edit: median ${fmt(med(longSum))} ms (max ${fmt(Math.max(...longSum))})`);
   } finally {
     await browser.close();
