@@ -158,8 +158,13 @@ export function findPartCycles(
   // here when the enumeration did not reach it) and the cycle is folded into it.
   multi.sort((a, b) => a.parts.length - b.parts.length || b.mags[b.peakIdx] - a.mags[a.peakIdx]);
   const keptMulti: PartCycle[] = [];
+  // per part, the listed loops through it that are short enough to lie within a detour and its two
+  // ends (withoutDetours asks for no others)
   const loopsOf: PartCycle[][] = Array.from({ length: P }, () => []);
-  const keep = (c: PartCycle) => { keptMulti.push(c); for (const p of c.parts) loopsOf[p].push(c); };
+  const keep = (c: PartCycle) => {
+    keptMulti.push(c);
+    if (c.parts.length <= DETOUR_LEN + 2) for (const p of c.parts) loopsOf[p].push(c);
+  };
   for (const c of multi) {
     const core = withoutDetours(c.parts, loopsOf, (a, b) => pg.peak[a * P + b]);
     if (core.length === c.parts.length) { keep(c); continue; }
