@@ -54,7 +54,7 @@ export function fullPencil(sys: MnaSystem, G: Float64Array, fHz: number): FullPe
 
 export function blackmanAt(
   sys: MnaSystem, key: string,
-  opts: { fHz?: number; scale?: Record<string, number>; shared?: FullPencil; stamps?: SourceStamp[] } = {},
+  opts: { fHz?: number; scale?: Record<string, number>; shared?: FullPencil; stamps?: SourceStamp[]; G?: Float64Array } = {},
 ): BlackmanResult {
   const fHz = opts.fHz ?? 0;
   const n = sys.n;
@@ -67,11 +67,13 @@ export function blackmanAt(
     const r = viaShared(sys, key, s, opts.shared);
     if (r) return r;
   }
-  const G = scaledG(sys, stamps, opts.scale ?? {});
+  // `opts.G`: G with the scales applied, when the caller holds it; the shared factor is that of the
+  // same network at this frequency
+  const G = opts.G ?? scaledG(sys, stamps, opts.scale ?? {});
   const G0 = Float64Array.from(G);
   addRankOne(G0, n, s, -1);
   const omega = 2 * Math.PI * fHz;
-  const full = new PencilAt(G, sys.C, n, omega);
+  const full = opts.shared && opts.shared.fHz === fHz ? opts.shared.pencil : new PencilAt(G, sys.C, n, omega);
   const cut = new PencilAt(G0, sys.C, n, omega);
   if (full.singular || cut.singular) {
     const which = full.singular ? 'the network' : `the network with ${key} removed`;

@@ -83,7 +83,7 @@ export function regulationOf(
     shared = fullPencil(sys, opts.G ?? scaledG(sys, stamps, opts.scale ?? {}), atHz);
     opts.pencils.set(atHz, shared);
   }
-  const b = opts.cache?.get(memo) ?? blackmanAt(sys, key, { fHz: atHz, scale: opts.scale, shared, stamps });
+  const b = opts.cache?.get(memo) ?? blackmanAt(sys, key, { fHz: atHz, scale: opts.scale, shared, stamps, G: opts.G });
   opts.cache?.set(memo, b);
   const base = { loopId: opts.loopId ?? key, key, atHz, status: b.status, message: b.message, nodes: b.nodes };
   if (b.status !== 'ok') return { ...base, holdsVoltage: null, holdsCurrent: null, summary: b.message ?? '' };
