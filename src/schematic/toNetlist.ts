@@ -44,12 +44,31 @@ export function geometryKey(doc: DrawingDocument): string {
   return key;
 }
 const geometryKeys = new WeakMap<object, string>();
+// Pieces of the key by record identity: an edit (immer) replaces the records it changes only, so
+// a new revision rebuilds the key from the cached pieces of the unchanged parts and, when no wire
+// changed, of the whole wire map.
+const partPieces = new WeakMap<object, string>();
+const wirePieces = new WeakMap<object, string>();
+
+const frozenRecord = (r: object & { params?: object }) => Object.isFrozen(r) && (r.params === undefined || Object.isFrozen(r.params));
 
 function makeGeometryKey(doc: DrawingDocument): string {
   const out: string[] = [];
-  for (const p of Object.values(doc.parts)) out.push(`${p.id}|${p.ref}|${p.kind}|${p.x}|${p.y}|${p.rotation}|${p.mirror ? 1 : 0}|${p.bulk ?? ''}|${p.params?.net ?? ''}`);
+  for (const p of Object.values(doc.parts)) {
+    let piece = partPieces.get(p);
+    if (piece === undefined) {
+      piece = `${p.id}|${p.ref}|${p.kind}|${p.x}|${p.y}|${p.rotation}|${p.mirror ? 1 : 0}|${p.bulk ?? ''}|${p.params?.net ?? ''}`;
+      if (frozenRecord(p)) partPieces.set(p, piece);
+    }
+    out.push(piece);
+  }
   out.push('#');
-  for (const w of Object.values(doc.wires)) out.push(`${w.id}:${w.points.map((q) => `${q.x},${q.y}`).join(';')}`);
+  let wires = wirePieces.get(doc.wires);
+  if (wires === undefined) {
+    wires = Object.values(doc.wires).map((w) => `${w.id}:${w.points.map((q) => `${q.x},${q.y}`).join(';')}`).join('\n');
+    if (isFrozenDoc(doc)) wirePieces.set(doc.wires, wires);
+  }
+  out.push(wires);
   return out.join('\n');
 }
 
