@@ -1,7 +1,8 @@
 // Right-hand results area: the live analysis (poles, node table, loops, A/B compare, plots) from the
 // analysis store (src/live). Without a store (no live analysis wired) it reports whether the drawing
 // builds into an engine netlist.
-import { memo, useDeferredValue } from 'react';
+import { memo, useDeferredValue, useEffect, useRef, useState } from 'react';
+import { BUSY_DELAY_MS } from '../canvas/AnalysisHud';
 import type { DrawingNetlist } from '../schematic/toNetlist';
 import type { LiveStore } from '../live/types';
 import { useAnalysis } from '../live/useAnalysis';
@@ -18,10 +19,21 @@ const MemoResults = memo(LiveResults);
 
 // The panel follows the store at a lower priority than the canvas: React renders a new state here
 // after the overlay has taken it (in slices between frames), so the tables of a new result never
-// hold back the frame that shows it on the drawing.
+// hold back the frame that shows it on the drawing. A run still waiting for its stage 1 is shown
+// only once it has lasted BUSY_DELAY_MS (as the canvas's busy mark): a quick run goes from the
+// last result straight to the new one, without a render of the panel at the edit itself.
 function ConnectedResults({ store, initialTab }: { store: LiveStore; initialTab?: ResultsTab }) {
   const { state, actions } = useAnalysis(store);
-  const shown = useDeferredValue(state);
+  const waiting = state.status === 'busy' && state.stage === 0;
+  const lastSettled = useRef(state);
+  if (!waiting) lastSettled.current = state;
+  const [slowRun, setSlowRun] = useState<number | null>(null);
+  useEffect(() => {
+    if (!waiting) return;
+    const t = setTimeout(() => setSlowRun(state.runId), BUSY_DELAY_MS);
+    return () => clearTimeout(t);
+  }, [waiting, state.runId]);
+  const shown = useDeferredValue(waiting && slowRun !== state.runId ? lastSettled.current : state);
   return <MemoResults state={shown} actions={actions} initialTab={initialTab} />;
 }
 
