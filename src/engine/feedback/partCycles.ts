@@ -166,7 +166,7 @@ export function findPartCycles(
     if (c.parts.length <= DETOUR_LEN + 2) for (const p of c.parts) loopsOf[p].push(c);
   };
   for (const c of multi) {
-    const core = withoutDetours(c.parts, loopsOf, (a, b) => pg.peak[a * P + b]);
+    const core = withoutDetours(c.parts, loopsOf, pg.peak, P);
     if (core.length === c.parts.length) { keep(c); continue; }
     let base = keptMulti.find((k) => sameCycle(k.parts, core)) ?? null;
     if (!base) {
@@ -274,8 +274,8 @@ const PARALLEL_RATIO = 0.1;
  *  enumerations give them). A run S between parts p and q is a detour when p → q is itself a
  *  coupling about as strong as the path through S (PARALLEL_RATIO), and every part of S closes a
  *  listed loop within S ∪ {p, q} that passes p or q (a booster between a cascode's input device and
- *  the cascode: the booster loop is listed on its own). `peak(a, b)`: peak coupling part a → b. */
-function withoutDetours(parts: number[], loopsOf: PartCycle[][], peak: (a: number, b: number) => number): number[] {
+ *  the cascode: the booster loop is listed on its own). `peak[a*P + b]`: peak coupling part a → b. */
+function withoutDetours(parts: number[], loopsOf: PartCycle[][], peak: Float64Array, P: number): number[] {
   let cur = parts.slice();
   for (let changed = true; changed && cur.length > 2;) {
     changed = false;
@@ -283,21 +283,41 @@ function withoutDetours(parts: number[], loopsOf: PartCycle[][], peak: (a: numbe
     for (let i = 0; i < L && !changed; i++) {
       for (let len = 1; len <= Math.min(DETOUR_LEN, L - 2) && !changed; len++) {
         const p = cur[i], q = cur[(i + len + 1) % L];
-        const direct = peak(p, q);
+        const direct = peak[p * P + q];
         if (!(direct > EDGE_FLOOR)) continue;
         let path = 1;
-        for (let k = 0, from = p; k <= len; k++) { const to = cur[(i + 1 + k) % L]; path *= peak(from, to); from = to; }
+        for (let k = 0, from = p; k <= len; k++) { const to = cur[(i + 1 + k) % L]; path *= peak[from * P + to]; from = to; }
         if (!(direct >= PARALLEL_RATIO * path)) continue;
-        const run = Array.from({ length: len }, (_, k) => cur[(i + 1 + k) % L]);
-        const local = (o: PartCycle) => (o.parts.includes(p) || o.parts.includes(q)) && o.parts.every((x) => x === p || x === q || run.includes(x));
-        if (!run.every((x) => loopsOf[x].some(local))) continue;
-        cur = cur.filter((x) => !run.includes(x));
+        // every part of the run closes a listed loop within the run and its ends that passes p or q
+        let detour = true;
+        for (let k = 0; k < len && detour; k++) {
+          const list = loopsOf[cur[(i + 1 + k) % L]];
+          let found = false;
+          for (let t = 0; t < list.length && !found; t++) found = withinRun(list[t].parts, p, q, cur, i + 1, len);
+          detour = found;
+        }
+        if (!detour) continue;
+        const from = cur;
+        cur = cur.filter((x) => !inRun(x, from, i + 1, len));
         changed = true;
       }
     }
   }
   const start = cur.indexOf(Math.min(...cur));
   return [...cur.slice(start), ...cur.slice(0, start)];
+}
+
+/** x is one of the `len` parts of `cur` from position `at` on (cyclically). */
+function inRun(x: number, cur: number[], at: number, len: number): boolean {
+  for (let k = 0; k < len; k++) if (cur[(at + k) % cur.length] === x) return true;
+  return false;
+}
+
+/** The loop `parts` passes p or q and lies within {p, q} and the run. */
+function withinRun(parts: number[], p: number, q: number, cur: number[], at: number, len: number): boolean {
+  if (!parts.includes(p) && !parts.includes(q)) return false;
+  for (const x of parts) if (x !== p && x !== q && !inRun(x, cur, at, len)) return false;
+  return true;
 }
 
 function sameCycle(a: number[], b: number[]): boolean {
