@@ -38,7 +38,8 @@ function median(xs: number[]): number {
 }
 
 /** Median of `runs` timings after `warm` untimed calls (V8 takes about ten calls to tier the
- *  feedback analysis up; the live app runs it again on every edit, so warm figures are the ones
+ *  feedback analysis up and keeps re-optimising pieces of it for some twenty more, as
+ *  `--trace-deopt` shows; the live app runs it again on every edit, so warm figures are the ones
  *  that matter). */
 function time(fn: () => unknown, runs = 3, warm = 1): number {
   for (let i = 0; i < warm; i++) fn();
@@ -66,12 +67,12 @@ export function runFeedbackBench(): void {
   const tRr = time(() => returnRatios(sys, { freqsHz: logSpace(1, 1e11, 5) }), 5, 10);
   const tLoops = time(() => discoverLoops(sys), 5, 10);
   const allFn = () => analyzeFeedbackSystem(sys);
-  const tAll = time(allFn, 9, 10);
+  const tAll = time(allFn, 15, 25);
   // as the live view runs it: after the small-signal analysis, whose poles, zeros and bandwidth it takes
   const complete = analyze(nl);
   const known = knownFigures(complete, complete.conditions.off);
   const liveFn = () => analyzeFeedbackSystem(sys, { known });
-  const tLive = time(liveFn, 9, 10);
+  const tLive = time(liveFn, 15, 25);
   const tOff = time(() => compareOff(sys, [d.loops[0].key]), 3, 3);
   const tLocus = time(() => rootLocus(sys, d.loops[0].key), 1);
   const tLocusShort = time(() => rootLocus(sys, shortKey), 1);
