@@ -105,6 +105,9 @@ describe('results panels on the live store', () => {
     tab(/Loops/);
     const item = a1Loop();
     expect(within(item).getByTestId('loop-holds').textContent).toMatch(/holds the current into out/);
+    // the output is driven by a test current source, so the loop is open at DC (T = 0) while the
+    // DC impedance factor comes from the shorted-port return ratio (Blackman 1943)
+    expect(within(item).getByTestId('loop-open-at-dc').textContent).toMatch(/port shorted/);
     fireEvent.click(within(item).getByRole('switch'));
     await waitFor(() => expect(store.getState().settings.offLoopIds.length).toBe(1));
     await settled(store);

@@ -80,7 +80,14 @@ export function LoopsList({ groups, known, offLoopIds, selectedLoopId, pending, 
             </dl>
             {g.marginNote ? <p className="rp-note">{g.marginNote}</p> : null}
             {g.warnings.map((w, i) => <p key={i} className="rp-warn" role="note">⚠ {w}</p>)}
-            {g.dcLoopGain === 0 && g.band ? <p className="rp-note">No loop gain at DC; active from {fmtHz(g.band.fromHz)}{g.band.toHz !== null ? ` to ${fmtHz(g.band.toHz)}` : ' upward'}.</p> : null}
+            {g.dcLoopGain === 0 && g.band ? (
+              <p className="rp-note" data-testid="loop-open-at-dc">
+                No loop gain at DC; active from {fmtHz(g.band.fromHz)}{g.band.toHz !== null ? ` to ${fmtHz(g.band.toHz)}` : ' upward'}.
+                {g.holds.length && g.holdsAtHz === 0
+                  ? ' The DC impedance factor still holds: with the port shorted the loop closes (Blackman: Z = Z⁰·(1 + T_sc)/(1 + T_oc), T_oc = 0 here).'
+                  : null}
+              </p>
+            ) : null}
             {g.booster && g.booster.ok ? (
               <p className="rp-note" title={g.booster.verdict}>
                 Booster placement fits: f<sub>u</sub> {fmtHz(g.booster.boosterUnityGainHz)} lies between the closed-loop bandwidth {fmtHz(g.booster.mainBandwidthHz)} and the non-dominant pole {fmtHz(g.booster.mainNonDominantHz)}.
