@@ -65,10 +65,13 @@ export function createLiveStore(opts: LiveStoreOptions = {}): LiveStore {
     const runId = state.runId + 1;
     const offLoops = state.settings.offLoopIds;
     const offSources = offLoops.map((id) => state.loops[id]?.key).filter((k): k is string => !!k);
-    // the run goes out before the listeners hear of it (they may render the page)
+    // the run goes out before the listeners hear of it (they may render the page); its id is in the
+    // state first, since a same-thread runner answers inside run()
+    const frequencyHz = state.settings.frequencyHz;
+    state = { ...state, runId, status: 'busy', stage: 0, feedbackPending: true, issues, doc, drawing, netlist: drawing.netlist, failure: null };
     submittedAt = perfNow();
-    runner.run({ runId, netlist: drawing.netlist, frequencyHz: state.settings.frequencyHz, offSources, offLoops });
-    set({ runId, status: 'busy', stage: 0, feedbackPending: true, issues, doc, drawing, netlist: drawing.netlist, failure: null });
+    runner.run({ runId, netlist: drawing.netlist, frequencyHz, offSources, offLoops });
+    set({});
   };
 
   const onMessage = (m: WorkerMessage) => {
