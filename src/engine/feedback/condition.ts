@@ -33,20 +33,16 @@ export function pencilCondition(G: Float64Array, C: Float64Array, n: number, ome
     if (sum > norm) norm = sum;
   }
   // (RMS)⁻¹x = S⁻¹·M⁻¹·(R⁻¹x) and (RMS)⁻ᴴy = R⁻¹·M⁻ᴴ·(S⁻¹y): R and S are real
-  const inv = (xr: Float64Array, xi: Float64Array): CVec => {
-    const br = new Float64Array(n), bi = new Float64Array(n);
-    for (let i = 0; i < n; i++) { br[i] = xr[i] / r[i]; bi[i] = xi[i] / r[i]; }
-    const y = pencil.solveFull(br, bi);
-    for (let i = 0; i < n; i++) { y.re[i] /= s[i]; y.im[i] /= s[i]; }
-    return y;
-  };
-  const invH = (xr: Float64Array, xi: Float64Array): CVec => {
-    const br = new Float64Array(n), bi = new Float64Array(n);
-    for (let i = 0; i < n; i++) { br[i] = xr[i] / s[i]; bi[i] = xi[i] / s[i]; }
-    const y = pencil.solveAdjoint(br, bi);
-    for (let i = 0; i < n; i++) { y.re[i] /= r[i]; y.im[i] /= r[i]; }
-    return y;
-  };
+  const scaledSolve = (solve: (br: Float64Array, bi: Float64Array) => CVec, before: Float64Array, after: Float64Array) =>
+    (xr: Float64Array, xi: Float64Array): CVec => {
+      const br = new Float64Array(n), bi = new Float64Array(n);
+      for (let i = 0; i < n; i++) { br[i] = xr[i] / before[i]; bi[i] = xi[i] / before[i]; }
+      const y = solve(br, bi);
+      for (let i = 0; i < n; i++) { y.re[i] /= after[i]; y.im[i] /= after[i]; }
+      return y;
+    };
+  const inv = scaledSolve((br, bi) => pencil.solveFull(br, bi), r, s);
+  const invH = scaledSolve((br, bi) => pencil.solveAdjoint(br, bi), s, r);
   const norm1 = (v: CVec) => { let t = 0; for (let i = 0; i < n; i++) t += Math.sqrt(v.re[i] * v.re[i] + v.im[i] * v.im[i]); return t; };
   let xr: Float64Array = new Float64Array(n).fill(1 / n);
   let xi: Float64Array = new Float64Array(n);
