@@ -1,12 +1,13 @@
-// Konva marks of the live analysis: wires coloured per net (annotate() colours), a halo on nets
-// lit by a hovered pole or the selected net, the selected loop's path with direction arrows, and
-// a ring on the slowest node. A group drawn in the wire layer over the plain wires (PartsLayer's
-// wireMarks); it never takes pointer input.
+// Konva marks of the live analysis: wires coloured per net (annotate() colours; one batch per
+// colour, WireStrokes), a halo on nets lit by a hovered pole or the selected net, the selected
+// loop's path with direction arrows, and a ring on the slowest node. A group drawn in the wire
+// layer over the plain wires (PartsLayer's wireMarks); it never takes pointer input.
 import { memo, useMemo } from 'react';
 import { Arrow, Circle, Group, Line } from 'react-konva';
-import type { DrawingDocument, WireRecord } from '../schematic/document';
+import type { DrawingDocument } from '../schematic/document';
 import type { SchematicAnnotations } from '../export/annotations';
 import { INK } from './theme';
+import { groupWires, WireStrokes, type WireStrokeGroup } from './WireStrokes';
 
 /** Loop path colour: a magenta outside the blue → amber impedance palette. */
 export const LOOP_COLOR = '#b0177a';
@@ -23,22 +24,6 @@ interface Props {
   scale: number;
 }
 
-// One coloured wire: memoised on the wire record (immutable) and its colour, so a new result
-// changes only the strokes of the nets whose colour moved, and a result with the same colours
-// (the sweep or the feedback stage arriving) redraws nothing.
-const MarkedWire = memo(function MarkedWire({ wire, color }: { wire: WireRecord; color: string }) {
-  const points = useMemo(() => wire.points.flatMap((p) => [p.x, p.y]), [wire]);
-  return <Line points={points} stroke={color} strokeWidth={OVERLAY_WIRE_WIDTH} lineCap="round" lineJoin="round" perfectDrawEnabled={false} listening={false} />;
-});
-
-const LitWire = memo(function LitWire({ wire, k }: { wire: WireRecord; k: number }) {
-  const points = useMemo(() => wire.points.flatMap((p) => [p.x, p.y]), [wire]);
-  return (
-    <Line points={points} stroke={LIT_COLOR} opacity={0.45} strokeWidth={10 * k + OVERLAY_WIRE_WIDTH}
-      lineCap="round" lineJoin="round" perfectDrawEnabled={false} listening={false} />
-  );
-});
-
 // Memoised on plain numbers: a re-render with the same ring (new dash array) draws nothing.
 const SlowestRing = memo(function SlowestRing({ x, y, k }: { x: number; y: number; k: number }) {
   return (
@@ -51,16 +36,26 @@ const SlowestRing = memo(function SlowestRing({ x, y, k }: { x: number; y: numbe
 });
 
 function AnalysisWireMarksView({ doc, ann, netOfWire, lit, scale }: Props) {
-  if (!ann) return null;
   const k = 1 / Math.max(scale, 0.3);
-  const wires = Object.values(doc.wires);
+  const wires = doc.wires;
+  // The colour of every wire, as one key: a result with the same colours (the sweep or the
+  // feedback stage arriving) keeps the same batches, and Konva draws nothing again.
+  const colourKey = ann ? Object.values(wires).map((w) => ann.nets[netOfWire.get(w.id) ?? '']?.color ?? '').join(',') : '';
+  const marks = useMemo((): WireStrokeGroup[] => {
+    if (!ann) return [];
+    const byColour = groupWires(Object.values(wires), (w) => ann.nets[netOfWire.get(w.id) ?? '']?.color ?? null);
+    return [...byColour].map(([color, list]) => ({ color, width: OVERLAY_WIRE_WIDTH, wires: list }));
+  }, [wires, colourKey, netOfWire]);
+  const halos = useMemo((): WireStrokeGroup[] => {
+    if (lit.size === 0) return [];
+    const list = Object.values(wires).filter((w) => lit.has(netOfWire.get(w.id) ?? ''));
+    return [{ color: LIT_COLOR, opacity: 0.45, width: 10 * k + OVERLAY_WIRE_WIDTH, wires: list }];
+  }, [wires, lit, netOfWire, k]);
+  if (!ann) return null;
   return (
     <Group listening={false}>
-      {lit.size > 0 && wires.filter((w) => lit.has(netOfWire.get(w.id) ?? '')).map((w) => <LitWire key={`lit:${w.id}`} wire={w} k={k} />)}
-      {wires.map((w) => {
-        const mark = ann.nets[netOfWire.get(w.id) ?? ''];
-        return mark ? <MarkedWire key={w.id} wire={w} color={mark.color} /> : null;
-      })}
+      <WireStrokes groups={halos} />
+      <WireStrokes groups={marks} />
       {ann.slowest && <SlowestRing x={ann.slowest.anchor.x} y={ann.slowest.anchor.y} k={k} />}
       {ann.loop && <LoopPath points={ann.loop.points} k={k} />}
     </Group>

@@ -1,15 +1,17 @@
 // Parts and wires of the document. Records are immutable (immer), so memoised views redraw only
 // the records that changed, and the selection changes only the colour prop of the items it touches.
 // The wires and the parts are drawn on separate layers, the parts on a few (see PARTS_PER_LAYER).
-// The wire layer also holds the live analysis colours of the wires (wireMarks), drawn over them.
-import { memo, type ReactElement } from 'react';
-import { Layer, Line } from 'react-konva';
+// The wire layer also holds the live analysis colours of the wires (wireMarks), drawn over the
+// plain wires and under the hovered and selected ones. Wires are drawn in batches (WireStrokes).
+import { memo, useMemo, type ReactElement } from 'react';
+import { Layer } from 'react-konva';
 import type { DrawingDocument, ItemId, PartRecord, WireRecord } from '../schematic/document';
 import { symbolOf } from '../schematic/symbols';
 import type { HitTarget } from '../editor/types';
 import { SymbolView } from './SymbolView';
 import { partValueText } from './partText';
-import { HOVER, INK, INK_SOFT, SELECTED, WIRE, WIRE_HIT_WIDTH, WIRE_WIDTH } from './theme';
+import { HOVER, INK, INK_SOFT, SELECTED, WIRE, WIRE_WIDTH } from './theme';
+import { WireStrokes, type WireStrokeGroup } from './WireStrokes';
 
 const PartView = memo(function PartView({ part, state }: { part: PartRecord; state: 'plain' | 'hover' | 'selected' }) {
   const sym = symbolOf(part.kind);
@@ -20,17 +22,6 @@ const PartView = memo(function PartView({ part, state }: { part: PartRecord; sta
       showBulk={part.bulk === 'pin'} color={color} strokeWidth={state === 'selected' ? 2 : undefined}
       label={sym.role === 'device' || sym.role === 'input' || sym.role === 'output' ? part.ref : undefined}
       value={partValueText(part, sym)} labelColor={state === 'plain' ? INK_SOFT : color}
-    />
-  );
-});
-
-const WireView = memo(function WireView({ wire, state }: { wire: WireRecord; state: 'plain' | 'hover' | 'selected' }) {
-  const points = wire.points.flatMap((p) => [p.x, p.y]);
-  return (
-    <Line
-      points={points} stroke={state === 'selected' ? SELECTED : state === 'hover' ? HOVER : WIRE}
-      strokeWidth={state === 'selected' ? 2.2 : WIRE_WIDTH} hitStrokeWidth={WIRE_HIT_WIDTH}
-      lineCap="round" lineJoin="round" listening={false} perfectDrawEnabled={false}
     />
   );
 });
@@ -61,14 +52,24 @@ const PartChunk = memo(function PartChunk({ items, states }: { items: PartRecord
   return <Layer listening={false}>{items.map((p, i) => <PartView key={p.id} part={p} state={states[i]} />)}</Layer>;
 }, sameItems);
 
-const WireItems = memo(function WireItems({ items, states }: { items: WireRecord[]; states: ItemState[] }) {
-  return <>{items.map((w, i) => <WireView key={w.id} wire={w} state={states[i]} />)}</>;
-}, sameItems);
+/** The wires in a given state as one batch (WireStrokes): the plain ones below the analysis
+ *  colours, the hovered and selected ones above them, so a selection stays visible on a coloured net. */
+const WireItems = memo(function WireItems({ items, states, show }: { items: WireRecord[]; states: ItemState[]; show: 'plain' | 'marked' }) {
+  const groups = useMemo((): WireStrokeGroup[] => {
+    if (show === 'plain') return [{ color: WIRE, width: WIRE_WIDTH, wires: items.filter((_, i) => states[i] === 'plain') }];
+    return [
+      { color: HOVER, width: WIRE_WIDTH, wires: items.filter((_, i) => states[i] === 'hover') },
+      { color: SELECTED, width: 2.2, wires: items.filter((_, i) => states[i] === 'selected') },
+    ];
+  }, [items, states, show]);
+  return <WireStrokes groups={groups} />;
+}, (a, b) => a.show === b.show && sameItems(a, b));
 
 function PartsLayerView({ doc, selection, hover, wireMarks }: Props) {
   const hoverId = hover.type === 'part' || hover.type === 'pin' ? hover.part : hover.type === 'wire' ? hover.wire : null;
   const stateOf = (id: ItemId): ItemState => (selection.has(id) ? 'selected' : id === hoverId ? 'hover' : 'plain');
   const wires = Object.values(doc.wires);
+  const wireStates = wires.map((w) => stateOf(w.id));
   const parts = Object.values(doc.parts).sort((a, b) => (a.id < b.id ? -1 : a.id > b.id ? 1 : 0));
   const size = Math.max(PARTS_PER_LAYER, Math.ceil(parts.length / MAX_PART_LAYERS));
   const chunks: PartRecord[][] = [];
@@ -76,8 +77,9 @@ function PartsLayerView({ doc, selection, hover, wireMarks }: Props) {
   return (
     <>
       <Layer listening={false}>
-        <WireItems items={wires} states={wires.map((w) => stateOf(w.id))} />
+        <WireItems items={wires} states={wireStates} show="plain" />
         {wireMarks ?? null}
+        <WireItems items={wires} states={wireStates} show="marked" />
       </Layer>
       {chunks.map((c, k) => <PartChunk key={k} items={c} states={c.map((p) => stateOf(p.id))} />)}
     </>

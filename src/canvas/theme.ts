@@ -10,6 +10,4 @@ export const WARN = '#a05a00';
 export const BAND_FILL = 'rgba(31, 111, 120, 0.08)';
 export const BAND_STROKE = '#1f6f78';
 export const WIRE_WIDTH = 1.5;
-/** Hit area of a thin wire, wider than its stroke (world units). */
-export const WIRE_HIT_WIDTH = 8;
 export const JUNCTION_RADIUS = 2.6;

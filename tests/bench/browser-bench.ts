@@ -54,7 +54,7 @@ function chainNetlist(stages: number) {
   };
 }
 
-interface Stamp { tEditDraw: number; tEditFrame: number; watch: string; draws0: { fillText: number; stroke: number }; draws: { fillText: number; stroke: number }; t0: number; t1: number; t2: number; snap: string; measures: { name: string; start: number; ms: number }[]; longTasks: { start: number; ms: number }[] }
+interface Stamp { editFrameNo: number; overlayFrameNo: number; tEditDraw: number; tEditFrame: number; watch: string; draws0: { fillText: number; stroke: number }; draws: { fillText: number; stroke: number }; t0: number; t1: number; t2: number; snap: string; measures: { name: string; start: number; ms: number }[]; longTasks: { start: number; ms: number }[] }
 
 const med = (v: number[]) => { const s = [...v].sort((a, b) => a - b); return s.length ? s[Math.floor(s.length / 2)] : NaN; };
 const fmt = (v: number) => (Number.isFinite(v) ? v.toFixed(1) : '—');
@@ -79,6 +79,13 @@ async function main() {
       const raf = window.requestAnimationFrame.bind(window);
       let inFrame = 0;
       window.requestAnimationFrame = (cb) => raf((t) => { inFrame++; try { cb(t); } finally { inFrame--; } });
+      // frame counter: a callback at the start of every frame (registered before any other of the
+      // frame's callbacks, so the number is the current frame's while they run)
+      window.__frameNo = 0;
+      const tick = () => { window.__frameNo++; raf(tick); };
+      raf(tick);
+      // the number of the frame that will show a change made now
+      window.__showingFrame = () => window.__frameNo + (inFrame > 0 ? 0 : 1);
       const mc = new MessageChannel(), queue = [];
       mc.port1.onmessage = () => { const fn = queue.shift(); if (fn) fn(performance.now()); };
       // fn(time) once the frame that shows what was just drawn is done on the main thread
@@ -98,6 +105,7 @@ async function main() {
         const b = window.__bench;
         if (b && b.t0 && !b.tEditDraw && b.watch && text === b.watch) {
           b.tEditDraw = performance.now();
+          b.editFrameNo = window.__showingFrame();
           performance.mark('bench:edit-drawn');
           window.__afterFrame((t) => { b.tEditFrame = t; });
         }
@@ -134,7 +142,7 @@ async function main() {
         return Array.from(root.querySelectorAll('.ao-badge, .ao-dot')).map((e) => e.textContent + '|' + (e.getAttribute('title') ?? '')).join('\n');
       };
       const draws = (w as unknown as { __draws: { fillText: number; stroke: number } }).__draws;
-      w.__bench = { t0: 0, t1: 0, t2: 0, tEditDraw: 0, tEditFrame: 0, watch: '', snap: snap(), measures: [], longTasks: [], draws0: { ...draws }, draws: { ...draws } };
+      w.__bench = { editFrameNo: -1, overlayFrameNo: -1, t0: 0, t1: 0, t2: 0, tEditDraw: 0, tEditFrame: 0, watch: '', snap: snap(), measures: [], longTasks: [], draws0: { ...draws }, draws: { ...draws } };
       // main-thread tasks over 50 ms (Long Tasks API): where the page could not answer input
       const long: { start: number; ms: number }[] = [];
       try {
@@ -142,11 +150,11 @@ async function main() {
       } catch { /* no Long Tasks API */ }
       (w as unknown as { __long: typeof long }).__long = long;
       // a named spin that marks the click in a CPU profile (BENCH_PROFILE)
-      const mark = { __benchClickMark() { const end = performance.now() + 0.3; while (performance.now() < end) { /* spin */ } } };
+      const mark = { __benchClickMark() { const end = performance.now() + 1; while (performance.now() < end) { /* spin */ } } };
       window.addEventListener('click', () => {
         if (profiling) mark.__benchClickMark();
         performance.clearMeasures();
-        w.__bench.t0 = performance.now(); w.__bench.t1 = 0; w.__bench.t2 = 0; w.__bench.tEditDraw = 0; w.__bench.tEditFrame = 0; w.__bench.snap = snap(); w.__bench.draws0 = { ...draws };
+        w.__bench.t0 = performance.now(); w.__bench.t1 = 0; w.__bench.t2 = 0; w.__bench.tEditDraw = 0; w.__bench.tEditFrame = 0; w.__bench.editFrameNo = -1; w.__bench.overlayFrameNo = -1; w.__bench.snap = snap(); w.__bench.draws0 = { ...draws };
       }, true);
       // which elements the page changes per edit (BENCH_MUTATIONS=1 prints them)
       const changed = new Map<string, number>();
@@ -165,6 +173,7 @@ async function main() {
         const s = snap();
         if (s && s !== b.snap) {
           b.t1 = performance.now();
+          b.overlayFrameNo = (window as unknown as { __showingFrame: () => number }).__showingFrame();
           performance.mark('bench:overlay-dom');
           (window as unknown as { __afterFrame: (fn: (t: number) => void) => void }).__afterFrame((t) => {
             b.t2 = t;
@@ -188,6 +197,7 @@ async function main() {
     const offsets = new Map<string, number[]>();
     const longSum: number[] = [], posts: number[] = [];
     const texts: number[] = [], strokes: number[] = [];
+    const framesApart: number[] = [];
     for (let i = 0; i < EDITS; i++) {
       // the value text the edit puts on the canvas: Undo goes back to the drawn value, Redo to 7k
       const watch = i % 2 === 0 ? valueText(rl.params.value ?? '') : valueText('7k');
@@ -206,6 +216,7 @@ async function main() {
       editFrame.push(t.tEditFrame > 0 ? t.tEditFrame - t.t0 : NaN);
       editToOverlay.push(t.tEditFrame > 0 ? Math.max(0, t.t2 - t.tEditFrame) : NaN);
       overlayPaint.push(t.t2 - t.t1);
+      framesApart.push(t.editFrameNo >= 0 && t.overlayFrameNo >= 0 ? t.overlayFrameNo - t.editFrameNo : NaN);
       // per edit: sum of each measure's durations that started after the click
       const sums = new Map<string, number>();
       for (const m of t.measures) {
@@ -250,7 +261,9 @@ async function main() {
     }
     if (cdp) {
       const prof = (await cdp.send('Profiler.stop')).profile as CpuProfile;
-      printProfile(prof, toFrame);
+      printProfile(prof, 'click → overlay frame', toFrame.map((t) => [0, t]));
+      printProfile(prof, 'click → edit frame', editFrame.map((t) => [0, Number.isFinite(t) ? t : 0]));
+      printProfile(prof, 'edit frame → overlay frame', editFrame.map((t, i) => [Number.isFinite(t) ? t : 0, toFrame[i]]));
       if (process.env.BENCH_PROFILE_OUT) writeFileSync(process.env.BENCH_PROFILE_OUT, JSON.stringify(prof));
     }
     // a look by eye at the overlay after the edits (zoomed in to a readable size)
@@ -263,6 +276,8 @@ async function main() {
     const b = editToOverlay.filter(Number.isFinite);
     console.log(`(b) edit frame → frame showing the overlay: median ${fmt(med(b))} ms (min ${fmt(Math.min(...b))}, max ${fmt(Math.max(...b))}); within one 60 Hz frame (≤ 16.7 ms) in ${b.filter((x) => x <= frame).length} of ${b.length}; same frame in ${b.filter((x) => x === 0).length}`);
     console.log(`(c) click → frame showing the overlay:      median ${fmt(med(toFrame))} ms (min ${fmt(Math.min(...toFrame))}, max ${fmt(Math.max(...toFrame))}) = ${(med(toFrame) / frame).toFixed(1)} frames`);
+    const fa = framesApart.filter(Number.isFinite);
+    console.log(`(d) frames from the edit's frame to the overlay's frame: 0 (same frame) in ${fa.filter((x) => x <= 0).length}, 1 (the next frame) in ${fa.filter((x) => x === 1).length}, 2 in ${fa.filter((x) => x === 2).length}, more in ${fa.filter((x) => x > 2).length} (of ${fa.length})`);
     console.log(`    overlay DOM change → end of its frame: median ${fmt(med(overlayPaint))} ms`);
     console.log(`edit → overlay DOM updated: median ${fmt(med(toOverlay))} ms (min ${fmt(Math.min(...toOverlay))}, max ${fmt(Math.max(...toOverlay))}) over ${EDITS} undo/redo clicks`);
     console.log(`edit → frame showing it:   median ${fmt(med(toFrame))} ms (min ${fmt(Math.min(...toFrame))}, max ${fmt(Math.max(...toFrame))}); ratio to one 60 Hz frame ${(med(toFrame) / (1000 / 60)).toFixed(1)}×`);
@@ -293,10 +308,10 @@ function printTrace(file: string, edits: number) {
 
 interface CpuProfile { nodes: { id: number; callFrame: { functionName: string; url: string; lineNumber: number }; children?: number[] }[]; samples: number[]; timeDeltas: number[] }
 
-/** The page's click marker (a named spin of 0.3 ms in the click listener) locates each click in
- *  the profile's own clock; only samples from a click to the end of its overlay frame count.
+/** The page's click marker (a named spin of 1 ms in the click listener) locates each click in
+ *  the profile's own clock; only samples inside each edit's window (ms after its click) count.
  *  Prints self time and inclusive time (each function once per sample) per edit. */
-function printProfile(p: CpuProfile, windowsMs: number[]) {
+function printProfile(p: CpuProfile, title: string, windowsMs: [number, number][]) {
   const byId = new Map(p.nodes.map((n) => [n.id, n]));
   const parent = new Map<number, number>();
   for (const n of p.nodes) for (const c of n.children ?? []) parent.set(c, n.id);
@@ -309,7 +324,7 @@ function printProfile(p: CpuProfile, windowsMs: number[]) {
     if (byId.get(id)!.callFrame.functionName !== '__benchClickMark') return;
     if (clicks.length === 0 || at[i] - clicks[clicks.length - 1] > 5) clicks.push(at[i]);
   });
-  const inWindow = (ms: number) => clicks.some((c, k) => ms >= c && ms <= c + (windowsMs[k] ?? 0));
+  const inWindow = (ms: number) => clicks.some((c, k) => windowsMs[k] !== undefined && ms >= c + windowsMs[k][0] && ms <= c + windowsMs[k][1]);
   const self = new Map<string, number>(), incl = new Map<string, number>();
   p.samples.forEach((id, i) => {
     if (!inWindow(at[i])) return;
@@ -324,7 +339,7 @@ function printProfile(p: CpuProfile, windowsMs: number[]) {
   const per = Math.max(1, clicks.length);
   const busy = [...self].filter(([n]) => !n.startsWith('(idle)') && !n.startsWith('(program)'));
   const total = busy.reduce((s, [, ms]) => s + ms, 0);
-  console.log(`main-thread CPU profile, click → overlay frame of ${clicks.length} edits: ${(total / per).toFixed(1)} ms busy per edit (idle ${((self.get('(idle) :-1') ?? 0) / per).toFixed(1)}, program ${((self.get('(program) :-1') ?? 0) / per).toFixed(1)}); self time per edit:`);
+  console.log(`main-thread CPU profile, ${title} of ${clicks.length} edits: ${(total / per).toFixed(1)} ms busy per edit (idle ${((self.get('(idle) :-1') ?? 0) / per).toFixed(1)}, program ${((self.get('(program) :-1') ?? 0) / per).toFixed(1)}); self time per edit:`);
   for (const [n, ms] of busy.sort((a, b) => b[1] - a[1]).slice(0, 22)) console.log(`  ${(ms / per).toFixed(2).padStart(8)} ms  ${n}`);
   console.log('inclusive time per edit:');
   for (const [n, ms] of [...incl].sort((a, b) => b[1] - a[1]).slice(0, 40)) console.log(`  ${(ms / per).toFixed(2).padStart(8)} ms  ${n}`);
