@@ -5,7 +5,7 @@ import { Circle, Group, Line, Rect, Text } from 'react-konva';
 import type { Point } from '../schematic/document';
 import type { DrawingIssue } from '../schematic/drawingChecks';
 import { ERROR, JUNCTION_RADIUS, WARN, WIRE } from './theme';
-import { TEXT_FONT } from './SymbolView';
+import { TEXT_FONT } from './drawSymbol';
 
 /** Short words printed beside a mark on the drawing; the full message is in the side panel. */
 export const ISSUE_TAG: Record<DrawingIssue['code'], string> = {

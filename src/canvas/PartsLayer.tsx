@@ -6,25 +6,11 @@
 import { memo, useMemo, type ReactElement } from 'react';
 import { Layer } from 'react-konva';
 import type { DrawingDocument, ItemId, PartRecord, WireRecord } from '../schematic/document';
-import { symbolOf } from '../schematic/symbols';
 import type { HitTarget } from '../editor/types';
-import { SymbolView } from './SymbolView';
-import { partValueText } from './partText';
-import { HOVER, INK, INK_SOFT, SELECTED, WIRE, WIRE_WIDTH } from './theme';
+import { SymbolBatch } from './SymbolView';
+import { partItems, type SymbolStyle } from './drawSymbol';
+import { HOVER, INK, INK_SOFT, SELECTED, SYMBOL_STROKE, WIRE, WIRE_WIDTH } from './theme';
 import { WireStrokes, type WireStrokeGroup } from './WireStrokes';
-
-const PartView = memo(function PartView({ part, state }: { part: PartRecord; state: 'plain' | 'hover' | 'selected' }) {
-  const sym = symbolOf(part.kind);
-  const color = state === 'selected' ? SELECTED : state === 'hover' ? HOVER : INK;
-  return (
-    <SymbolView
-      symbol={sym} x={part.x} y={part.y} rotation={part.rotation} mirror={part.mirror}
-      showBulk={part.bulk === 'pin'} color={color} strokeWidth={state === 'selected' ? 2 : undefined}
-      label={sym.role === 'device' || sym.role === 'input' || sym.role === 'output' ? part.ref : undefined}
-      value={partValueText(part, sym)} labelColor={state === 'plain' ? INK_SOFT : color}
-    />
-  );
-});
 
 interface Props {
   doc: DrawingDocument;
@@ -48,8 +34,14 @@ const MAX_PART_LAYERS = 4;
 const sameItems = <T,>(a: { items: T[]; states: ItemState[] }, b: { items: T[]; states: ItemState[] }) =>
   a.items.length === b.items.length && a.items.every((x, i) => x === b.items[i] && a.states[i] === b.states[i]);
 
+const styleOf = (state: ItemState): SymbolStyle => state === 'selected' ? { color: SELECTED, width: 2, labelColor: SELECTED }
+  : state === 'hover' ? { color: HOVER, width: SYMBOL_STROKE, labelColor: HOVER }
+    : { color: INK, width: SYMBOL_STROKE, labelColor: INK_SOFT };
+
+/** One layer of parts, drawn as one batch (SymbolBatch); each part's items are cached on its record. */
 const PartChunk = memo(function PartChunk({ items, states }: { items: PartRecord[]; states: ItemState[] }) {
-  return <Layer listening={false}>{items.map((p, i) => <PartView key={p.id} part={p} state={states[i]} />)}</Layer>;
+  const list = useMemo(() => items.map((p, i) => ({ items: partItems(p), style: styleOf(states[i]) })), [items, states]);
+  return <Layer listening={false}><SymbolBatch list={list} /></Layer>;
 }, sameItems);
 
 /** The wires in a given state as one batch (WireStrokes): the plain ones below the analysis

@@ -11,3 +11,5 @@ export const BAND_FILL = 'rgba(31, 111, 120, 0.08)';
 export const BAND_STROKE = '#1f6f78';
 export const WIRE_WIDTH = 1.5;
 export const JUNCTION_RADIUS = 2.6;
+/** Line weight of symbol bodies (world units). */
+export const SYMBOL_STROKE = 1.5;

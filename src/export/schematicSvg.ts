@@ -6,16 +6,15 @@
 import type { DrawingDocument, Point } from '../schematic/document';
 import { computeConnectivity, GROUND_NET } from '../schematic/connectivity';
 import { placedBounds, symbolOf } from '../schematic/symbols';
-import { partValueText } from '../canvas/partText';
-import { INK, INK_SOFT, JUNCTION_RADIUS, WIRE, WIRE_WIDTH } from '../canvas/theme';
+import { placedSymbolOf } from '../canvas/drawSymbol';
+import { INK, INK_SOFT, JUNCTION_RADIUS, SYMBOL_STROKE, WIRE, WIRE_WIDTH } from '../canvas/theme';
 import { formatSi } from '../engine/units';
 import type { SchematicAnnotations, TitleBlock } from './annotations';
 import { BADGE_TEXT_SIZE, EMPTY_ANNOTATIONS } from './annotations';
-import { symbolItems, type DrawItem } from './symbolGeometry';
+import { symbolItems, textLines, type DrawItem } from './symbolGeometry';
 import { el, esc, idFor, pointsAttr, svgDocument, text } from './svgWriter';
 
 export const SVG_FONT = 'Helvetica, Arial, sans-serif';
-export const SYMBOL_STROKE = 1.5;
 export const LOOP_COLOR = '#7b3f98';
 export const SLOW_COLOR = '#1e2a32';
 const MARGIN = 20;
@@ -34,25 +33,24 @@ function itemSvg(it: DrawItem, color: string, box: Box): string {
     grow(box, it.cx - it.r, it.cy - it.r); grow(box, it.cx + it.r, it.cy + it.r);
     return el('circle', { cx: it.cx, cy: it.cy, r: it.r, fill: it.fill ? color : 'none' });
   }
-  const w = textW(it.text, it.size);
-  const x0 = it.align === 'start' ? it.x : it.align === 'end' ? it.x - w : it.x - w / 2;
-  grow(box, x0, it.y - it.size * 0.6); grow(box, x0 + w, it.y + it.size * 0.6);
+  const lines = textLines(it);
   const anchor = it.align === 'start' ? 'start' : it.align === 'end' ? 'end' : 'middle';
-  return text(it.x, it.y, it.text, {
-    'font-size': it.size, 'text-anchor': anchor, dy: '0.35em', stroke: 'none',
-    fill: it.role === 'fixed' ? color : INK_SOFT, 'font-weight': it.role === 'label' ? 'bold' : undefined,
-  });
+  return lines.map((l) => {
+    const w = textW(l.text, it.size);
+    const x0 = it.align === 'start' ? it.x : it.align === 'end' ? it.x - w : it.x - w / 2;
+    grow(box, x0, l.y - it.size * 0.6); grow(box, x0 + w, l.y + it.size * 0.6);
+    return text(it.x, l.y, l.text, {
+      'font-size': it.size, 'text-anchor': anchor, dy: '0.35em', stroke: 'none',
+      fill: it.role === 'fixed' ? color : INK_SOFT, 'font-weight': it.role === 'label' ? 'bold' : undefined,
+    });
+  }).join('');
 }
 
 function partsSvg(doc: DrawingDocument, box: Box): string {
   const parts = Object.values(doc.parts).sort((a, b) => (a.ref < b.ref ? -1 : a.ref > b.ref ? 1 : a.id < b.id ? -1 : 1));
   return el('g', { id: 'parts', stroke: INK, 'stroke-width': SYMBOL_STROKE, 'stroke-linecap': 'round', 'stroke-linejoin': 'round', fill: 'none' }, parts.map((p) => {
     const sym = symbolOf(p.kind);
-    const items = symbolItems(sym, {
-      x: p.x, y: p.y, rotation: p.rotation, mirror: p.mirror, showBulk: p.bulk === 'pin',
-      label: sym.role === 'device' || sym.role === 'input' || sym.role === 'output' ? p.ref : undefined,
-      value: partValueText(p, sym),
-    });
+    const items = symbolItems(sym, placedSymbolOf(p, sym));
     const b = placedBounds(p);
     grow(box, b.x, b.y); grow(box, b.x + b.width, b.y + b.height);
     return el('g', { id: idFor('part', p.ref), class: `part ${p.kind}` }, [el('title', {}, esc(`${p.ref} (${sym.title})`)), ...items.map((it) => itemSvg(it, INK, box))]);

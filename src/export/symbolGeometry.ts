@@ -32,6 +32,29 @@ export function orientAlign(align: TextAlign, anchor: Point, rotation: Rotation,
   return wx > 0 ? 'start' : 'end';
 }
 
+/** Upright text written inside a body (a net label's name) cannot fit once the body stands
+ *  vertical; it then goes just past the body's far end, centred, above or below it. */
+export function textBeyondTurnedBody(
+  symbol: SymbolDef, anchor: Point, rotation: Rotation, mirror: boolean, size: number,
+): { local: Point; dy: number } | null {
+  if (rotation !== 90 && rotation !== 270) return null;
+  const b = symbol.bounds;
+  const inside = anchor.x > b.x && anchor.x < b.x + b.width && anchor.y > b.y && anchor.y < b.y + b.height;
+  if (!inside) return null;
+  const local = { x: b.x + b.width + 2, y: 0 };
+  const down = orient({ x: 1, y: 0 }, rotation, mirror).y > 0;
+  return { local, dy: down ? size * 0.75 : -size * 0.75 };
+}
+
+/** Line spacing of multi-line text, in text sizes. */
+export const LINE_SPACING = 1.1;
+
+/** The lines of a text item ("50 µA\n8u/1u") with the vertical middle of each: the first line
+ *  centred on the item's anchor, the others below it. */
+export function textLines(it: { y: number; text: string; size: number }): { text: string; y: number }[] {
+  return it.text.split('\n').map((text, i) => ({ text, y: it.y + i * it.size * LINE_SPACING }));
+}
+
 export type DrawItem =
   | { type: 'poly'; points: number[]; closed: boolean; fill: boolean }
   | { type: 'circle'; cx: number; cy: number; r: number; fill: boolean }
@@ -93,6 +116,12 @@ export function symbolItems(symbol: SymbolDef, at: PlacedSymbol): DrawItem[] {
   }
   const anchored = (anchor: SymbolDef['labelAnchor'], text: string | undefined, size: number, role: 'label' | 'value') => {
     if (!text) return;
+    const moved = textBeyondTurnedBody(symbol, anchor, at.rotation, at.mirror, size);
+    if (moved) {
+      const w = world(moved.local.x, moved.local.y);
+      items.push({ type: 'text', x: w.x, y: w.y + moved.dy, text, size, align: 'middle', role });
+      return;
+    }
     const w = world(anchor.x, anchor.y);
     items.push({ type: 'text', x: w.x, y: w.y, text, size, align: orientAlign(anchor.align, anchor, at.rotation, at.mirror), role });
   };

@@ -27,7 +27,16 @@ function mount(doc: DrawingDocument) {
   return { stage: () => stage! as Konva.Stage, rerender: (d: DrawingDocument) => r.rerender(view(d)) };
 }
 
-const textsOf = (layer: Konva.Layer) => layer.find('Text').map((t) => (t as Konva.Text).text());
+type MockContext = { __getDrawCalls(): { type: string; props: Record<string, unknown> }[]; __clearDrawCalls(): void };
+/** The texts a layer draws (read back from the mocked canvas, vitest-canvas-mock). */
+const textsOf = (layer: Konva.Layer) => {
+  const c = layer.getContext()._context as unknown as MockContext;
+  c.__clearDrawCalls();
+  layer.draw();
+  return c.__getDrawCalls().filter((e) => e.type === 'fillText').map((e) => e.props.text as string);
+};
+/** The drawing function of each layer's shapes: a layer whose shapes keep theirs is not redrawn. */
+const drawersOf = (layer: Konva.Layer) => layer.find('Shape').map((s) => (s as Konva.Shape).sceneFunc());
 
 describe('parts layers', () => {
   it('draws every part once, over ceil(n / PARTS_PER_LAYER) layers above one wire layer', () => {
@@ -35,7 +44,7 @@ describe('parts layers', () => {
     const { stage } = mount(doc);
     const layers = stage().getLayers();
     expect(layers.length).toBe(1 + Math.ceil(130 / PARTS_PER_LAYER));
-    expect(layers[0].find('Text').length).toBe(0); // the wire layer: lines only
+    expect(textsOf(layers[0]).length).toBe(0); // the wire layer: lines only
     const refs = layers.slice(1).flatMap((l) => textsOf(l)).filter((t) => /^R\d{3}$/.test(t));
     expect(refs.length).toBe(130);
     expect(new Set(refs).size).toBe(130);
@@ -45,10 +54,14 @@ describe('parts layers', () => {
     const doc = produce(manyResistors(130), () => {});
     const { stage, rerender } = mount(doc);
     const before = stage().getLayers().map(textsOf);
+    const drawers = stage().getLayers().map(drawersOf);
     rerender(produce(doc, (d) => { d.parts['part:r077' as PartId].params.value = '2.2k'; }));
     const after = stage().getLayers().map(textsOf);
     const changed = after.map((t, i) => t.join('|') !== before[i].join('|'));
     expect(changed.filter(Boolean).length).toBe(1);
     expect(after[changed.indexOf(true)].some((t) => /2\.2/.test(t))).toBe(true);
+    // only that layer got a new drawing function (Konva marks a layer for redraw when a shape changes)
+    const redrawn = stage().getLayers().map((l, i) => drawersOf(l).some((f, k) => f !== drawers[i][k]));
+    expect(redrawn).toEqual(changed);
   });
 });
