@@ -1,12 +1,12 @@
 // The main screen: top bar / parts shelf | drawing | inspector and results / status line.
 // React only renders the editor's state and forwards input to it; tools, hit-testing, snapping,
 // the camera, undo and the document rules live in src/editor and src/schematic.
-import { memo, useCallback, useEffect, useMemo, useRef, useState, useSyncExternalStore } from 'react';
+import { memo, useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import type { Editor, EditorEvent } from './editor/types';
 import type { DrawingDocument, PartId, SymbolKind } from './schematic/document';
 import { documentToNetlist } from './schematic/toNetlist';
 import { Sheet } from './canvas/Sheet';
-import { GridLayer } from './canvas/GridLayer';
+import { gridBackground } from './canvas/GridLayer';
 import { PartsLayer } from './canvas/PartsLayer';
 import { OverlayMarks, WHOLE_DRAWING_CODES } from './canvas/OverlayLayer';
 import { InteractionMarks } from './canvas/InteractionLayer';
@@ -41,13 +41,6 @@ export interface AppProps {
   elk?: () => ElkRunner;
 }
 
-/** Re-render on every editor change. */
-function useEditorVersion(editor: Editor): number {
-  const version = useRef(0);
-  const subscribe = useCallback((fn: () => void) => editor.subscribe(() => { version.current += 1; fn(); }), [editor]);
-  return useSyncExternalStore(subscribe, () => version.current, () => version.current);
-}
-
 // The parts shelf draws every symbol: kept from re-rendering on each edit (its callbacks are stable).
 const Shelf = memo(Palette);
 
@@ -58,9 +51,8 @@ function isTypingTarget(t: EventTarget | null): boolean {
 }
 
 export function App({ editor, examples = [], storage = typeof localStorage === 'undefined' ? null : localStorage, analysisStore, elk }: AppProps) {
-  useEditorVersion(editor);
-  // The app does not subscribe to the analysis state: the overlay's components and the results
-  // panel do (a new result re-renders those only).
+  // Re-renders on every editor change. The app does not subscribe to the analysis state: the
+  // overlay's components and the results panel do (a new result re-renders those only).
   const store = useLiveSubmit(editor, analysisStore);
   const { state, document: doc, selection, camera, history } = editor;
   const [drafts, setDrafts] = useState<Drafts>({});
@@ -153,6 +145,7 @@ export function App({ editor, examples = [], storage = typeof localStorage === '
           setDragKind(null);
         }}
         onFileDrop={host.openFileObject}
+        backdrop={gridBackground(camera)}
         overlay={
           <>
             {banner && (
@@ -178,9 +171,8 @@ export function App({ editor, examples = [], storage = typeof localStorage === '
           </>
         }
       >
-        {(size) => (
+        {() => (
           <>
-            <GridLayer camera={camera} width={size.width} height={size.height} />
             <PartsLayer doc={doc} selection={selection} hover={state.hover} wireMarks={<LiveWireMarks store={store} doc={doc} scale={camera.scale} />} />
             {/* one canvas for the junctions, issue marks and the pointer's marks */}
             <Layer listening={false}>

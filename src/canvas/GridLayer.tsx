@@ -1,55 +1,47 @@
-// Grid layer: minor dots on the 10-unit grid, major crosses every 50 units. Drawn in one Shape
-// pass over the visible area only; never listens to events.
-import { memo } from 'react';
-import { Layer, Shape } from 'react-konva';
-import type { Context } from 'konva/lib/Context';
-import { visibleWorldRect, type Camera } from './camera';
+// The sheet's grid: minor dots on the 10-unit grid, major crosses every 50 units. Drawn as the
+// sheet's CSS background (one SVG tile of 50 × 50 units, repeated and moved with the camera), not
+// as a canvas: the browser paints it once per zoom or pan and it never joins a redraw of the
+// drawing.
+import type { CSSProperties } from 'react';
+import type { Camera } from './camera';
 
 export const GRID = 10;
 const MAJOR = 5;
+const DOT = '#d3cec2';
+const CROSS = '#bdb6a6';
 
-interface Props {
-  camera: Camera;
-  width: number;
-  height: number;
-}
+const fmt = (v: number) => String(Math.round(v * 1000) / 1000);
 
-function GridLayerView({ camera, width, height }: Props) {
-  const view = visibleWorldRect(camera, { width, height });
-  const pxPerCell = GRID * camera.scale;
+/** The tile (one major cell in screen pixels) as SVG text. */
+export function gridTileSvg(scale: number): { svg: string; size: number } {
+  const cell = GRID * scale;
+  const size = cell * MAJOR;
+  const parts: string[] = [];
   // Skip minor points when they would crowd closer than ~6 px.
-  const showMinor = pxPerCell >= 6;
-  const sceneFunc = (ctx: Context) => {
-    const c = ctx._context;
-    const x0 = Math.floor(view.x / GRID) * GRID;
-    const y0 = Math.floor(view.y / GRID) * GRID;
-    const x1 = view.x + view.width;
-    const y1 = view.y + view.height;
-    const dot = 1.5 / camera.scale;
-    c.fillStyle = '#d3cec2';
-    if (showMinor) {
-      for (let x = x0; x <= x1; x += GRID) {
-        for (let y = y0; y <= y1; y += GRID) c.fillRect(x - dot / 2, y - dot / 2, dot, dot);
+  if (cell >= 6) {
+    for (let i = 0; i < MAJOR; i++) {
+      for (let j = 0; j < MAJOR; j++) {
+        if (i === 0 && j === 0) continue;
+        parts.push(`<rect x="${fmt(i * cell - 0.75)}" y="${fmt(j * cell - 0.75)}" width="1.5" height="1.5"/>`);
       }
     }
-    const step = GRID * MAJOR;
-    const arm = 2.5 / camera.scale;
-    c.strokeStyle = '#bdb6a6';
-    c.lineWidth = 1 / camera.scale;
-    c.beginPath();
-    for (let x = Math.floor(view.x / step) * step; x <= x1; x += step) {
-      for (let y = Math.floor(view.y / step) * step; y <= y1; y += step) {
-        c.moveTo(x - arm, y); c.lineTo(x + arm, y);
-        c.moveTo(x, y - arm); c.lineTo(x, y + arm);
-      }
-    }
-    c.stroke();
-  };
-  return (
-    <Layer listening={false}>
-      <Shape sceneFunc={sceneFunc} perfectDrawEnabled={false} listening={false} />
-    </Layer>
-  );
+  }
+  const arm = 2.5;
+  // the cross at the tile's corner, drawn at all four corners so the tile repeats seamlessly
+  const cross = (x: number, y: number) => `M${fmt(x - arm)} ${fmt(y)}H${fmt(x + arm)}M${fmt(x)} ${fmt(y - arm)}V${fmt(y + arm)}`;
+  const d = [cross(0, 0), cross(size, 0), cross(0, size), cross(size, size)].join('');
+  const svg = `<svg xmlns="http://www.w3.org/2000/svg" width="${fmt(size)}" height="${fmt(size)}">`
+    + `<g fill="${DOT}">${parts.join('')}</g><path d="${d}" stroke="${CROSS}" stroke-width="1" fill="none"/></svg>`;
+  return { svg, size };
 }
 
-export const GridLayer = memo(GridLayerView);
+/** CSS background of the sheet for this camera (world (0, 0) on a major cross). */
+export function gridBackground(camera: Camera): CSSProperties {
+  const { svg, size } = gridTileSvg(camera.scale);
+  const mod = (v: number) => ((v % size) + size) % size;
+  return {
+    backgroundImage: `url("data:image/svg+xml,${encodeURIComponent(svg)}")`,
+    backgroundSize: `${size}px ${size}px`,
+    backgroundPosition: `${mod(camera.x)}px ${mod(camera.y)}px`,
+  };
+}

@@ -1,7 +1,7 @@
 // The drawing surface: a Konva stage sized to its box. It draws what it is given and forwards
 // every pointer, wheel and key input as a plain editor event in WORLD coordinates (plus the screen
 // position) — the editor owns tools, hit-testing, snapping and the camera (pan, zoom to cursor).
-import { useEffect, useLayoutEffect, useRef, useState, type ReactNode } from 'react';
+import { useEffect, useLayoutEffect, useRef, useState, type CSSProperties, type ReactNode } from 'react';
 import { Stage } from 'react-konva';
 import { screenToWorld, type Camera, type Point } from './camera';
 import type { Button, EditorEvent } from '../editor/types';
@@ -20,13 +20,15 @@ interface Props {
   children: (size: { width: number; height: number }) => ReactNode;
   /** HTML drawn above the stage (zoom buttons, banners). */
   overlay?: ReactNode;
+  /** Background of the sheet under the stage (the grid). */
+  backdrop?: CSSProperties;
 }
 
 function asButton(b: number): Button {
   return b === 1 ? 1 : b === 2 ? 2 : 0;
 }
 
-export function Sheet({ camera, onEvent, onSize, onPartDragOver, onPartDrop, onFileDrop, cursor, children, overlay }: Props) {
+export function Sheet({ camera, onEvent, onSize, onPartDragOver, onPartDrop, onFileDrop, cursor, children, overlay, backdrop }: Props) {
   const box = useRef<HTMLDivElement>(null);
   const [size, setSize] = useState({ width: 800, height: 600 });
   const [fileOver, setFileOver] = useState(false);
@@ -86,7 +88,7 @@ export function Sheet({ camera, onEvent, onSize, onPartDragOver, onPartDrop, onF
       role="application"
       aria-label="Drawing surface"
       data-testid="sheet"
-      style={{ cursor }}
+      style={{ ...backdrop, cursor }}
       onPointerDown={(e) => {
         box.current?.focus({ preventScroll: true });
         if (e.button === 1) e.preventDefault();

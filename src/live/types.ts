@@ -5,7 +5,6 @@
 import type { AnalysisResult, Netlist } from '../engine/index';
 import type { BlackmanResult, FeedbackResult } from '../engine/feedback/index';
 import type { DrawingDocument } from '../schematic/document';
-import type { DrawingIssue } from '../schematic/drawingChecks';
 import type { DrawingNetlist } from '../schematic/toNetlist';
 import type { LoopDetail, LoopDetailRequest } from '../worker/loopDetail';
 

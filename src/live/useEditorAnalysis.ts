@@ -1,16 +1,18 @@
 // Wires an editor to a live analysis store. useLiveSubmit (in the app) submits every document
-// change (drags throttled) without subscribing to the store's state, so a new result does not
+// change (drags throttled) and re-renders the app on editor changes, without subscribing to the
+// store's state, so a new result does not
 // re-render the whole app; useLiveOverlay (in the overlay's own components, src/canvas/LiveOverlay)
 // subscribes, derives the overlay's data once (liveView.ts), and keeps the hovered and selected
 // net of the store in step with the wire under the pointer and the selected wire.
-import { useEffect, useLayoutEffect, useRef, useState } from 'react';
+import { useEffect, useLayoutEffect, useMemo, useRef, useState, useSyncExternalStore } from 'react';
 import type { Editor, HitTarget } from '../editor/types';
 import type { ItemId } from '../schematic/document';
 import { createLiveStore } from './store';
 import type { LiveStore } from './types';
 import { useAnalysis } from './useAnalysis';
 import { liveView } from './liveView';
-import { arrivals, perfMeasure, perfNow } from './perfMarks';
+import { arrivals, perfMeasure } from './perfMarks';
+import { gatedEditorSubscribe } from './editGate';
 
 /** The given store, or one owned by the calling component (disposed when it unmounts). */
 function useOwnedStore(given?: LiveStore): LiveStore {
@@ -29,23 +31,22 @@ function useOwnedStore(given?: LiveStore): LiveStore {
   return given ?? own.current!;
 }
 
-/** The store (given, or owned), fed with the editor's document. */
+/** The store (given, or owned), fed with the editor's document; the calling component re-renders
+ *  on every editor change, a committed edit held until its analysis arrives (editGate.ts). */
 export function useLiveSubmit(editor: Editor, given?: LiveStore): LiveStore {
   const store = useOwnedStore(given);
+  const version = useRef(0);
+  const subscribe = useMemo(() => {
+    const gated = gatedEditorSubscribe(editor, store);
+    return (fn: () => void) => gated(() => { version.current += 1; fn(); });
+  }, [editor, store]);
+  useSyncExternalStore(subscribe, () => version.current, () => version.current);
   const doc = editor.document;
   const dragging = editor.state.mode === 'select.moving';
-
+  // the first drawing, and any the editor's subscription did not see
   useEffect(() => {
     if (store.getState().doc !== doc) store.actions.submit(doc, { drag: dragging });
   }, [store, doc, dragging]);
-  // Submit at the edit itself, before React renders it: the worker starts on the new drawing while
-  // the page is still drawing the edit (the effect above then finds it submitted).
-  useEffect(() => editor.subscribe(() => {
-    const d = editor.document;
-    if (store.getState().doc === d) return;
-    arrivals.edit = perfNow();
-    store.actions.submit(d, { drag: editor.state.mode === 'select.moving' });
-  }), [editor, store]);
   // edit handed to the store → the page committed its own render of the edit
   useLayoutEffect(() => { if (arrivals.edit > 0) perfMeasure('render-edit', arrivals.edit); }, [doc]);
   return store;

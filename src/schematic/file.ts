@@ -161,16 +161,51 @@ export function validateDrawing(obj: Record<string, unknown>): LoadResult {
     if (typeof obj[k] !== 'object' || obj[k] === null || Array.isArray(obj[k])) return { ok: false, reason: `Field "${k}" must be an object keyed by id.` };
   }
   for (const [key, raw] of Object.entries(obj.parts as Record<string, unknown>)) {
-    const r = validatePart(key, raw);
+    const r = checkedOnce(checkedParts, key, raw, validatePart);
     if (!r.ok) return r;
     doc.parts[r.part.id] = r.part;
   }
   for (const [key, raw] of Object.entries(obj.wires as Record<string, unknown>)) {
-    const r = validateWire(key, raw);
+    const r = checkedOnce(checkedWires, key, raw, validateWire);
     if (!r.ok) return r;
     doc.wires[r.wire.id] = r.wire;
   }
   return { ok: true, doc };
+}
+
+// An immutable record (every record of an editor revision is frozen by immer) is checked once:
+// its checked copy is kept, frozen, so a new revision of the drawing hands the unchanged records
+// on as the same objects, and the caches keyed on records (toNetlist's geometry pieces, the
+// canvas symbol items) keep their entries across edits.
+const checkedParts = new WeakMap<object, { key: string; result: { ok: true; part: PartRecord } }>();
+const checkedWires = new WeakMap<object, { key: string; result: { ok: true; wire: WireRecord } }>();
+
+function checkedOnce<R extends { ok: true }>(
+  cache: WeakMap<object, { key: string; result: R }>, key: string, raw: unknown,
+  check: (key: string, raw: unknown) => R | { ok: false; reason: string },
+): R | { ok: false; reason: string } {
+  // a record in the cache was deeply frozen when it went in, and still is
+  const hit = typeof raw === 'object' && raw !== null ? cache.get(raw) : undefined;
+  if (hit && hit.key === key) return hit.result;
+  const frozen = typeof raw === 'object' && raw !== null && isDeepFrozen(raw);
+  const r = check(key, raw);
+  if (r.ok && frozen) cache.set(raw as object, { key, result: deepFreeze(r) });
+  return r;
+}
+
+function isDeepFrozen(v: unknown): boolean {
+  if (typeof v !== 'object' || v === null) return true;
+  if (!Object.isFrozen(v)) return false;
+  for (const k in v) if (!isDeepFrozen((v as Record<string, unknown>)[k])) return false;
+  return true;
+}
+
+function deepFreeze<T>(v: T): T {
+  if (typeof v === 'object' && v !== null && !Object.isFrozen(v)) {
+    Object.freeze(v);
+    for (const k in v) deepFreeze((v as Record<string, unknown>)[k]);
+  }
+  return v;
 }
 
 /** Browser-storage autosave (any object with getItem / setItem, e.g. localStorage). */

@@ -105,6 +105,19 @@ export interface ParamProblem {
 
 /** Checked engine values of a part, or the problems (each naming the part and the field). */
 export function engineValues(part: PartRecord): { values: Record<string, number>; problems: ParamProblem[] } {
+  // A frozen record (an editor revision's, via immer) never changes: its values are read once.
+  // The result is shared between callers: they must not change it.
+  const frozen = Object.isFrozen(part) && Object.isFrozen(part.params);
+  const known = frozen ? valuesOfRecord.get(part) : undefined;
+  if (known) return known;
+  const made = readEngineValues(part);
+  if (frozen) valuesOfRecord.set(part, made);
+  return made;
+}
+
+const valuesOfRecord = new WeakMap<PartRecord, { values: Record<string, number>; problems: ParamProblem[] }>();
+
+function readEngineValues(part: PartRecord): { values: Record<string, number>; problems: ParamProblem[] } {
   const values: Record<string, number> = {};
   const problems: ParamProblem[] = [];
   const given = new Map<string, string[]>();

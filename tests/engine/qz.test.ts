@@ -1,5 +1,5 @@
 import { describe, it, expect } from 'vitest';
-import { Matrix, EigenvalueDecomposition } from 'ml-matrix';
+import { EigenvalueDecomposition } from 'ml-matrix';
 import { finiteEigenvalues, generalizedEigenvalues } from '../../src/engine/linalg/qz';
 import { dggev, splitFinite } from '../bench/emlapack';
 import { randomNetworkPencil, standardForm, rng } from '../bench/eig-bench';

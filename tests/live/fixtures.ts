@@ -2,6 +2,7 @@
 // transistor given directly by its small-signal values (gm, gds, capacitances).
 import { commonSource } from '../schematic/build';
 import type { DrawingDocument, PartId } from '../../src/schematic/document';
+import type { AnalysisRunner, RunRequest, WorkerMessage } from '../../src/worker/protocol';
 
 export const GDS = 20e-6;
 export const GM = 1e-3;
@@ -23,3 +24,11 @@ export function withR1(doc: DrawingDocument, value: string): DrawingDocument {
 
 /** Parallel combination (ohms). */
 export const par = (a: number, b: number) => (a * b) / (a + b);
+
+/** A runner of the worker kind whose answers the test delivers by hand. */
+export function handRunner() {
+  const requests: RunRequest[] = [];
+  let deliver: (m: WorkerMessage) => void = () => {};
+  const runner: AnalysisRunner = { kind: 'worker', run: (r) => { requests.push(r); }, onMessage: (fn) => { deliver = fn; }, dispose: () => {} };
+  return { runner, requests, deliver: (m: WorkerMessage) => deliver(m) };
+}

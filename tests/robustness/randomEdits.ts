@@ -10,7 +10,6 @@ import { loadDrawing, saveDrawing } from '../../src/schematic/file';
 import { placedPins, SYMBOL_KINDS, symbolOf } from '../../src/schematic/symbols';
 import { EXAMPLE_DRAWINGS } from '../../src/examples/index';
 import { documentToNetlist } from '../../src/schematic/toNetlist';
-import { rng } from '../seeded';
 
 export { rng } from '../seeded';
 

@@ -8,16 +8,8 @@ import { AnalysisHud, BUSY_DELAY_MS } from '../../src/canvas/AnalysisHud';
 import { createLiveStore } from '../../src/live/index';
 import { useAnalysis } from '../../src/live/useAnalysis';
 import type { LiveStore } from '../../src/live/index';
-import type { AnalysisRunner, RunRequest, WorkerMessage } from '../../src/worker/protocol';
 import { runOverlayStage, runStage2 } from '../../src/worker/compute';
-import { csStage, GDS, par } from '../live/fixtures';
-
-function handRunner() {
-  const requests: RunRequest[] = [];
-  let deliver: (m: WorkerMessage) => void = () => {};
-  const runner: AnalysisRunner = { kind: 'worker', run: (r) => { requests.push(r); }, onMessage: (fn) => { deliver = fn; }, dispose: () => {} };
-  return { runner, requests, deliver: (m: WorkerMessage) => deliver(m) };
-}
+import { csStage, GDS, handRunner, par } from '../live/fixtures';
 
 function Hud({ store }: { store: LiveStore }) {
   const { state, actions } = useAnalysis(store);
