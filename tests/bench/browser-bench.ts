@@ -6,10 +6,13 @@
 // per edit: (a) click → end of the frame that draws the edited value on the canvas (the first
 // fillText of the new value text), (b) that frame → end of the frame that shows the updated
 // overlay (a MutationObserver sees the badge texts/titles change; the wire colours are drawn in
-// the same frame), (c) click → end of the overlay frame. "End of a frame" is a MessageChannel
-// task posted from that frame's requestAnimationFrame step: it runs once the main thread has
-// done the frame's style, layout, paint and commit (common practice for timing a frame). The
-// app's own performance measures ("ps:" names, src/live/perfMarks.ts) split each edit into
+// the same frame), (c) click → end of the overlay frame, (d) how many frames apart the edit and
+// the overlay are shown (a requestAnimationFrame callback at the start of every frame numbers the
+// frames; the page shows a change in the frame after the one running when it is made; the app
+// holds a committed edit's render for its stage 1, src/live/editGate.ts, so 0 is the aim). "End of
+// a frame" is a MessageChannel task posted from that frame's requestAnimationFrame step: it runs
+// once the main thread has done the frame's style, layout, paint and commit (common practice for
+// timing a frame). The app's own performance measures ("ps:" names, src/live/perfMarks.ts) split each edit into
 // netlist, worker, annotate and paint.
 import { readFileSync, writeFileSync } from 'node:fs';
 import { netlistToDrawing } from '../../src/layout/importNetlist';
