@@ -27,7 +27,7 @@ type ItemState = 'plain' | 'hover' | 'selected';
  *  the layer holding that part only, not all the symbols and their texts. Few layers, though:
  *  every canvas is a compositor layer the size of the sheet, and in the 2-core headless bench
  *  (tests/bench/browser-bench.ts, 252 parts) 4 part layers gave a faster edit → overlay frame
- *  than 7 or 16, although each redraws more parts. */
+ *  than 7 or 16, and, with the batched drawing, than 1 (tests/bench/RESULTS.md). */
 export const PARTS_PER_LAYER = 64;
 const MAX_PART_LAYERS = 4;
 
@@ -46,7 +46,7 @@ const PartChunk = memo(function PartChunk({ items, states }: { items: PartRecord
 
 /** The wires in a given state as one batch (WireStrokes): the plain ones below the analysis
  *  colours, the hovered and selected ones above them, so a selection stays visible on a coloured net. */
-const WireItems = memo(function WireItems({ items, states, show }: { items: WireRecord[]; states: ItemState[]; show: 'plain' | 'marked' }) {
+const WireItems = memo(function WireItems({ items, states, show }: { items: WireRecord[]; states: ItemState[]; show: 'plain' | 'picked' }) {
   const groups = useMemo((): WireStrokeGroup[] => {
     if (show === 'plain') return [{ color: WIRE, width: WIRE_WIDTH, wires: items.filter((_, i) => states[i] === 'plain') }];
     return [
@@ -71,7 +71,7 @@ function PartsLayerView({ doc, selection, hover, wireMarks }: Props) {
       <Layer listening={false}>
         <WireItems items={wires} states={wireStates} show="plain" />
         {wireMarks ?? null}
-        <WireItems items={wires} states={wireStates} show="marked" />
+        <WireItems items={wires} states={wireStates} show="picked" />
       </Layer>
       {chunks.map((c, k) => <PartChunk key={k} items={c} states={c.map((p) => stateOf(p.id))} />)}
     </>
