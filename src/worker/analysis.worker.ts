@@ -1,5 +1,6 @@
-// The analysis Web Worker: receives WorkerRequest messages (runs and loop-detail requests) and
-// answers WorkerMessage (stage 1, sweep, stage 2; loop detail).
+// The analysis Web Worker: receives WorkerRequest messages (runs, stage-2-only requests and
+// loop-detail requests) and answers WorkerMessage (stage 1, complete, stage 2; loop detail). The
+// page starts two of it (runner.ts): one for the overlay's stages, one for the loops.
 import { createScheduler } from './scheduler';
 import type { WorkerMessage, WorkerRequest } from './protocol';
 

@@ -1,7 +1,7 @@
 // The stages of a run, as pure functions (used inside the worker and by the same-thread
 // fallback alike). Engine failures come back as result issues; nothing here throws.
 import { analyze, analyzeStaged, buildMna } from '../engine/index';
-import { analyzeFeedback, blackmanAt, knownFigures, type BlackmanResult, type FeedbackResult } from '../engine/feedback/index';
+import { analyzeFeedback, blackmanAt, knownFigures, type BlackmanResult, type FeedbackResult, type KnownFigures } from '../engine/feedback/index';
 import type { AnalysisResult } from '../engine/index';
 import type { RunRequest } from './protocol';
 
@@ -20,7 +20,14 @@ export function runOverlayStage(req: RunRequest): { first: AnalysisResult; compl
 /** `complete`: the run's complete small-signal result, whose poles, zeros and bandwidth the
  *  feedback analysis takes when they were computed with the same sources off. */
 export function runStage2(req: RunRequest, complete?: AnalysisResult): { feedback: FeedbackResult; blackman: Record<string, BlackmanResult> } {
-  const known = complete ? knownFigures(complete, complete.conditions.off) : undefined;
+  return runStage2Known(req, complete ? knownOf(complete) : undefined);
+}
+
+/** What a complete result hands the feedback stage (its poles, zeros, bandwidth). */
+export const knownOf = (complete: AnalysisResult): KnownFigures | undefined => knownFigures(complete, complete.conditions.off);
+
+/** Stage 2 with the complete result's figures given directly (the loops worker gets them so). */
+export function runStage2Known(req: RunRequest, known?: KnownFigures): { feedback: FeedbackResult; blackman: Record<string, BlackmanResult> } {
   const feedback = analyzeFeedback(req.netlist, { off: req.offLoops, known });
   const blackman: Record<string, BlackmanResult> = {};
   if (!feedback.ok || feedback.loops.length === 0) return { feedback, blackman };

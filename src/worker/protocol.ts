@@ -1,12 +1,13 @@
 // Messages between the live store and the analysis worker. A run answers in stages: stage 1 is
 // what the canvas overlay draws (the first part of the engine's analyzeStaged: poles, node
 // table, DC gain), then the complete result (zeros, transfer sweep, OCTC, participation, every
-// node's impedance over frequency), then stage 2, the feedback analysis (several times slower). Every run message carries the run id of its request, so the
-// receiver can drop answers of stale runs. A loop-detail request (the selected loop's T(jω) or
+// node's impedance over frequency), then stage 2, the feedback analysis (several times slower;
+// the page's worker runner asks a second worker for it, FeedbackRequest). Every run message
+// carries the run id of its request, so the receiver can drop answers of stale runs. A loop-detail request (the selected loop's T(jω) or
 // root locus, loopDetail.ts) is the other request kind; it is answered after the stages of the
 // current run, newest request only.
 import type { AnalysisResult, Netlist } from '../engine/index';
-import type { BlackmanResult, FeedbackResult } from '../engine/feedback/index';
+import type { BlackmanResult, FeedbackResult, KnownFigures } from '../engine/feedback/index';
 import type { LoopDetail, LoopDetailRequest } from './loopDetail';
 
 export type { LoopDetail, LoopDetailRequest };
@@ -30,7 +31,12 @@ export interface RunRequest {
 /** The page has drawn stage 1 of run `runId`: the worker may go on with the later stages. */
 export interface ShownRequest { kind: 'shown'; runId: number }
 
-export type WorkerRequest = RunRequest | LoopDetailRequest | ShownRequest;
+/** Stage 2 alone, for a worker of its own (the loops worker): the run, and the poles, zeros and
+ *  bandwidth of its complete result, sent by the page when that result has arrived. Answered with
+ *  the run's stage-2 message; a newer request supersedes one not yet started. */
+export interface FeedbackRequest { kind: 'feedback'; run: RunRequest; known?: KnownFigures }
+
+export type WorkerRequest = RunRequest | LoopDetailRequest | ShownRequest | FeedbackRequest;
 
 /** `ms`: compute time of the stage inside the worker; `at`: when the worker got the request and
  *  when it posted this answer (performance.timeOrigin + now(), ms: comparable across threads).
@@ -53,6 +59,7 @@ export type WorkerMessage = RunMessage | LoopDetailMessage;
 
 export const isLoopDetailRequest = (r: WorkerRequest): r is LoopDetailRequest => r.kind === 'loopDetail';
 export const isShownRequest = (r: WorkerRequest): r is ShownRequest => r.kind === 'shown';
+export const isFeedbackRequest = (r: WorkerRequest): r is FeedbackRequest => r.kind === 'feedback';
 
 /** Runs analysis requests somewhere (a Web Worker, or the same thread as a fallback). */
 export interface AnalysisRunner {

@@ -1,15 +1,16 @@
 // One task at a time, newest wins, with a yield to the event loop between tasks (so a newer
 // request can arrive): stage 1 of the newest run, then its complete result, then its stage 2
-// (each skipped once a newer run is pending), then the newest loop-detail request. Shared by the
-// worker and the same-thread fallback.
+// (each skipped once a newer run is pending), then the newest stage-2-only request (the loops
+// worker's), then the newest loop-detail request. Shared by the workers and the same-thread
+// fallback.
 // A run asking for it (`holdAfterStage1`) waits after stage 1 until the page says it has shown
 // that stage (a 'shown' request) or HOLD_MAX_MS pass: on a 2-core machine the later stages would
 // otherwise take a core from the page while it draws the overlay. When idle, the worker may repeat
 // stage 1 of the last run a few times (`warmCalls`): the engine's kernels are then compiled
 // (JIT) before the next edit instead of during the first dozen edits.
-import { runOverlayStage, runStage2 } from './compute';
+import { runOverlayStage, runStage2, runStage2Known } from './compute';
 import { computeLoopDetail } from './loopDetail';
-import { isLoopDetailRequest, isShownRequest, type LoopDetailRequest, type RunRequest, type WorkerMessage, type WorkerRequest } from './protocol';
+import { isFeedbackRequest, isLoopDetailRequest, isShownRequest, type FeedbackRequest, type LoopDetailRequest, type RunRequest, type WorkerMessage, type WorkerRequest } from './protocol';
 import type { AnalysisResult } from '../engine/index';
 
 export interface Scheduler {
@@ -40,6 +41,7 @@ export function createScheduler(post: (msg: WorkerMessage) => void, yieldNow: (f
   let pendingAt = 0;
   let later: Later | null = null;
   let detail: LoopDetailRequest | null = null;
+  let feedbackAsk: FeedbackRequest | null = null;
   let busy = false;
   let stopped = false;
   let warmLeft = opts.warmCalls ?? 0;
@@ -114,6 +116,15 @@ export function createScheduler(post: (msg: WorkerMessage) => void, yieldNow: (f
       return;
     } else if (later) {
       continueRun(later);
+    } else if (feedbackAsk) {
+      const { run, known } = feedbackAsk;
+      feedbackAsk = null;
+      try {
+        const [{ feedback, blackman }, ms] = timed(() => runStage2Known(run, known));
+        post({ runId: run.runId, stage: 2, feedback, blackman, ms });
+      } catch (e) {
+        post({ runId: run.runId, stage: 'failed', message: `feedback analysis: ${errText(e)}` });
+      }
     } else if (detail) {
       const req = detail;
       detail = null;
@@ -134,6 +145,7 @@ export function createScheduler(post: (msg: WorkerMessage) => void, yieldNow: (f
       if (stopped) return;
       if (isShownRequest(req)) { release(req.runId); return; }
       if (isLoopDetailRequest(req)) detail = req;
+      else if (isFeedbackRequest(req)) feedbackAsk = req;
       else {
         if (pending) post({ runId: pending.runId, stage: 'dropped' });
         pending = req;
@@ -142,7 +154,7 @@ export function createScheduler(post: (msg: WorkerMessage) => void, yieldNow: (f
       if (!busy) { busy = true; yieldNow(step); }
     },
     stop() {
-      stopped = true; pending = null; later = null; detail = null;
+      stopped = true; pending = null; later = null; detail = null; feedbackAsk = null;
       if (holdTimer !== null) { clearTimer(holdTimer); holdTimer = null; }
     },
   };

@@ -1,9 +1,11 @@
-// The worker scheduler's hold after stage 1 (the later stages wait for the page's 'shown', or a
-// time limit) and its idle warm-up calls. These check the scheduler's own contract (message order,
-// what runs when); the figures themselves are checked in store.test.ts.
+// The worker scheduler: its hold after stage 1 (the later stages wait for the page's 'shown', or a
+// time limit), its idle warm-up calls and the stage-2-only request of the loops worker. These
+// check the scheduler's own contract (message order, what runs when); the figures themselves are
+// checked in store.test.ts.
 import { describe, expect, test } from 'vitest';
 import { createScheduler, HOLD_MAX_MS } from '../../src/worker/scheduler';
 import type { RunRequest, WorkerMessage } from '../../src/worker/protocol';
+import { knownOf } from '../../src/worker/compute';
 import { documentToNetlist } from '../../src/schematic/toNetlist';
 import { csStage, withR1 } from './fixtures';
 
@@ -84,5 +86,32 @@ describe('worker scheduler: idle warm-up', () => {
     d.sch.push(req(2, '10k', false));
     d.steps.shift()!();
     expect(summary(d.posted)).toEqual(['1:1', '1:complete', '1:2', '2:1']);
+  });
+});
+
+describe('worker scheduler: the two-worker split', () => {
+  test('a run without feedback ends at its complete result; a feedback request gives the same stage 2 as one worker', () => {
+    const one = driven();
+    one.sch.push(req(1, '4.7k', false));
+    one.drain();
+    const split = driven();
+    split.sch.push({ ...req(1, '4.7k', false), feedback: false });
+    split.drain();
+    expect(summary(split.posted)).toEqual(['1:1', '1:complete']);
+    const complete = split.posted[1] as Extract<WorkerMessage, { stage: 'complete' }>;
+    const loops = driven();
+    loops.sch.push({ kind: 'feedback', run: req(1, '4.7k', false), known: knownOf(complete.result) });
+    loops.drain();
+    expect(summary(loops.posted)).toEqual(['1:2']);
+    const strip = (m: WorkerMessage) => JSON.stringify({ ...m, ms: undefined });
+    expect(strip(loops.posted[0])).toBe(strip(one.posted[2])); // byte for byte (common practice)
+  });
+
+  test('a newer feedback request supersedes one not yet started', () => {
+    const d = driven();
+    d.sch.push({ kind: 'feedback', run: req(1, '4.7k', false) });
+    d.sch.push({ kind: 'feedback', run: req(2, '10k', false) });
+    d.drain();
+    expect(summary(d.posted)).toEqual(['2:2']);
   });
 });
