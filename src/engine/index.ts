@@ -16,7 +16,7 @@ import type { Sweep } from './analyses/frequency';
 import type { OctcResult } from './analyses/octc';
 import type { PoleParticipation } from './analyses/participation';
 import { resolveSwitches, sanitize, type GainUnit, type NodeRow, type SweepRange } from './analyses/report';
-import { completeStage, hasError, overlayStage, structuredCopy, type OverlayStage } from './stages';
+import { completeStage, completeSteps, hasError, overlayStage, runSteps, structuredCopy, type OverlayStage } from './stages';
 export type { TransferEvaluator } from './analyses/transfer';
 
 export type * from './types';
@@ -157,30 +157,43 @@ export function runAnalyses(sys: MnaSystem, issues: EngineIssue[], conditions: A
 export interface StagedAnalysis {
   first: AnalysisResult;
   complete(): AnalysisResult;
+  /** The same complete result, worked out one step per next() (completeSteps); complete()
+   *  afterwards, or in between, gives the same object. */
+  steps(): Generator<void, AnalysisResult>;
 }
 
 export function analyzeStaged(netlist: Netlist, opts: AnalyzeOptions = {}): StagedAnalysis {
   const prepared = prepare(netlist, opts);
-  if ('result' in prepared) return { first: prepared.result, complete: () => prepared.result };
+  if ('result' in prepared) return done(prepared.result);
   let stage: OverlayStage;
   try {
     stage = overlayStage(prepared.sys, emptyResult(prepared.issues, prepared.conditions), opts);
   } catch (e) {
-    const r = emptyResult([...prepared.issues, internal('the analyses', e)], prepared.conditions);
-    return { first: r, complete: () => r };
+    return done(emptyResult([...prepared.issues, internal('the analyses', e)], prepared.conditions));
   }
   const first = sanitize(structuredCopy(stage.result));
+  const { issues, conditions } = prepared;
+  const overlay = stage;
   let full: AnalysisResult | null = null;
-  return {
-    first,
-    complete() {
-      if (full) return full;
-      try {
-        full = completeStage(stage);
-      } catch (e) {
-        full = emptyResult([...prepared.issues, internal('the analyses', e)], prepared.conditions);
+  let active: Generator<void, AnalysisResult> | null = null;
+  function* steps(): Generator<void, AnalysisResult> {
+    if (full) return full;
+    active ??= completeSteps(overlay);
+    try {
+      for (let r = active.next(); ; r = active.next()) {
+        if (r.done) { full = r.value; break; }
+        yield;
       }
-      return full;
-    },
-  };
+    } catch (e) {
+      full = emptyResult([...issues, internal('the analyses', e)], conditions);
+    }
+    active = null;
+    return full;
+  }
+  return { first, steps, complete: () => full ?? runSteps(steps()) };
+}
+
+/** A staged analysis that ended at its first part (an error before or in the overlay stage). */
+function done(r: AnalysisResult): StagedAnalysis {
+  return { first: r, complete: () => r, steps: function* () { return r; } };
 }

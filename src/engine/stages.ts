@@ -74,6 +74,20 @@ export function overlayStage(sys: MnaSystem, res: AnalysisResult, opts: AnalyzeO
 }
 
 export function completeStage(st: OverlayStage): AnalysisResult {
+  return runSteps(completeSteps(st));
+}
+
+/** Drives a stepwise computation to its end. */
+export function runSteps<T>(steps: Generator<void, T>): T {
+  let r = steps.next();
+  while (!r.done) r = steps.next();
+  return r.value;
+}
+
+/** completeStage in steps of at most about a fifth of the whole (zeros, transfer sweep, pole
+ *  vectors and participation, impedance sweep), so a caller that runs them one task at a time
+ *  can take a newer request in between. */
+export function* completeSteps(st: OverlayStage): Generator<void, AnalysisResult> {
   const { sys, opts, result: res, dc, poles, dcT, zDc, tc, asked } = st;
   const reasons = res.reasons;
   const conditions = res.conditions;
@@ -93,6 +107,7 @@ export function completeStage(st: OverlayStage): AnalysisResult {
     reasons.sweep = reasons.bandwidthHz = reasons.unityGainHz = 'the output does not respond to the input (H(s) ≡ 0)';
   }
   const transferDefined = dcT.status !== 'no-input' && dcT.status !== 'no-output' && !identicallyZero;
+  yield;
   // One shifted Hessenberg reduction serves the sweep and the pole vectors.
   const reduction = shiftedReduction(sys.G, sys.C, sys.n);
   if (transferDefined) {
@@ -109,6 +124,7 @@ export function completeStage(st: OverlayStage): AnalysisResult {
   } else if (!identicallyZero) {
     reasons.sweep = dcT.reason ?? 'no transfer chosen';
   }
+  yield;
 
   if (asked === undefined) {
     const slowestPole = poles.poles.find((p) => p.kind !== 'origin');
@@ -123,6 +139,7 @@ export function completeStage(st: OverlayStage): AnalysisResult {
   res.participation = poleParticipation(sys, poles.poles, { vectors });
   const shaky = unreliablePoles(poleConditions(sys, poles.poles, vectors));
   if (shaky.length > 0) res.issues.push(undeterminedPolesIssue(res, shaky));
+  yield;
   if (opts.impedanceSweep) {
     res.impedanceSweep = impedanceSweep(sys, logGrid(range.fMin, range.fMax, range.perDecade), { poles: poles.poles, reduction, vectors });
   }

@@ -2,7 +2,7 @@
 // fallback alike). Engine failures come back as result issues; nothing here throws.
 import { analyze, analyzeStaged, buildMna } from '../engine/index';
 import { analyzeFeedback, blackmanAt, knownFigures, type BlackmanResult, type FeedbackResult, type KnownFigures } from '../engine/feedback/index';
-import type { AnalysisResult } from '../engine/index';
+import type { AnalysisResult, StagedAnalysis } from '../engine/index';
 import type { RunRequest } from './protocol';
 
 /** Stage 1 and its completion at once: analyze() with the node-impedance sweep. */
@@ -13,7 +13,7 @@ export function runStage1(req: RunRequest): AnalysisResult {
 /** What the canvas overlay draws first (poles, node table at the asked frequency, DC gain:
  *  analyzeStaged's first part), and the rest on the same factors when asked for (zeros, transfer
  *  sweep, OCTC, participation, node-impedance sweep). */
-export function runOverlayStage(req: RunRequest): { first: AnalysisResult; complete: () => AnalysisResult } {
+export function runOverlayStage(req: RunRequest): StagedAnalysis {
   return analyzeStaged(req.netlist, { frequencyHz: req.frequencyHz, off: req.offSources, impedanceSweep: true });
 }
 

@@ -23,7 +23,9 @@ const errText = (e: unknown) => (e instanceof Error ? e.message : String(e));
 const clock = () => (typeof performance !== 'undefined' ? performance.now() : Date.now());
 const epoch = () => (typeof performance !== 'undefined' && performance.timeOrigin ? performance.timeOrigin + performance.now() : Date.now());
 
-type Later = { req: RunRequest; next: 'complete' | 'feedback'; complete: () => AnalysisResult; held: boolean };
+/** The rest of a run after its stage 1: the complete result is worked out one step per task
+ *  (`steps`, its time summed in `ms`), so a newer run's stage 1 waits one step at most. */
+type Later = { req: RunRequest; next: 'complete' | 'feedback'; complete: () => AnalysisResult; steps: Generator<void, AnalysisResult>; ms: number; held: boolean };
 
 /** Longest wait for the page's 'shown' before the later stages start anyway (ms). */
 export const HOLD_MAX_MS = 60;
@@ -68,7 +70,7 @@ export function createScheduler(post: (msg: WorkerMessage) => void, yieldNow: (f
       const received = pendingAt;
       const [staged, ms] = timed(() => runOverlayStage(req));
       post({ runId: req.runId, stage: 1, result: staged.first, ms, at: { received, posted: epoch() } });
-      later = staged.first.ok ? { req, next: 'complete', complete: staged.complete, held: !!req.holdAfterStage1 } : null;
+      later = staged.first.ok ? { req, next: 'complete', complete: staged.complete, steps: staged.steps(), ms: 0, held: !!req.holdAfterStage1 } : null;
       if (staged.first.ok) lastOk = req;
       if (later?.held) {
         const runId = req.runId;
@@ -83,8 +85,10 @@ export function createScheduler(post: (msg: WorkerMessage) => void, yieldNow: (f
     const { req } = l;
     if (l.next === 'complete') {
       try {
-        const [result, ms] = timed(l.complete);
-        post({ runId: req.runId, stage: 'complete', result, ms });
+        const [step, ms] = timed(() => l.steps.next());
+        l.ms += ms;
+        if (!step.done) return; // the next task takes the next step
+        post({ runId: req.runId, stage: 'complete', result: step.value, ms: l.ms });
       } catch (e) {
         post({ runId: req.runId, stage: 'failed', message: `analysis: ${errText(e)}` });
         later = null;

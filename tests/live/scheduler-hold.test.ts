@@ -6,6 +6,7 @@ import { describe, expect, test } from 'vitest';
 import { createScheduler, HOLD_MAX_MS } from '../../src/worker/scheduler';
 import type { RunRequest, WorkerMessage } from '../../src/worker/protocol';
 import { knownOf } from '../../src/worker/compute';
+import { analyzeStaged } from '../../src/engine/index';
 import { documentToNetlist } from '../../src/schematic/toNetlist';
 import { csStage, withR1 } from './fixtures';
 
@@ -67,22 +68,48 @@ describe('worker scheduler: hold after stage 1', () => {
   });
 });
 
+/** Tasks the complete result takes (completeSteps: zeros; sweep; vectors and participation;
+ *  impedance sweep). */
+const COMPLETE_STEPS = 4;
+
+describe('worker scheduler: the complete result in steps', () => {
+  test('a run arriving while the complete result is worked out is taken after one step', () => {
+    const d = driven();
+    d.sch.push(req(1, '4.7k', false));
+    d.steps.shift()!(); // stage 1
+    d.steps.shift()!(); // first step of the complete result
+    d.sch.push(req(2, '10k', false));
+    d.steps.shift()!();
+    expect(summary(d.posted)).toEqual(['1:1', '1:dropped', '2:1']);
+  });
+
+  test('stepwise, the complete result is the one analyzeStaged gives at once', () => {
+    const d = driven();
+    d.sch.push({ ...req(1, '4.7k', false), feedback: false });
+    expect(d.drain()).toBe(1 + COMPLETE_STEPS + 1);
+    const posted = d.posted[1] as Extract<WorkerMessage, { stage: 'complete' }>;
+    const direct = analyzeStaged(req(1, '4.7k').netlist, { frequencyHz: 0, impedanceSweep: true }).complete();
+    expect(JSON.stringify(posted.result)).toBe(JSON.stringify(direct)); // common practice: same bytes
+  });
+});
+
 describe('worker scheduler: idle warm-up', () => {
   test('after a run, the idle scheduler repeats its stage 1 warmCalls times without posting', () => {
     const d = driven(3);
     d.sch.push(req(1, '4.7k', false));
     const steps = d.drain();
-    // stage 1, complete, stage 2, three warm-up calls, then the step that finds nothing to do
-    expect(steps).toBe(7);
+    // stage 1, complete (COMPLETE_STEPS tasks), stage 2, three warm-up calls, then the step that
+    // finds nothing to do
+    expect(steps).toBe(1 + COMPLETE_STEPS + 1 + 3 + 1);
     expect(summary(d.posted)).toEqual(['1:1', '1:complete', '1:2']);
     d.sch.push(req(2, '10k', false));
-    expect(d.drain()).toBe(4); // no warm-up calls left
+    expect(d.drain()).toBe(1 + COMPLETE_STEPS + 1 + 1); // no warm-up calls left
   });
 
   test('a request that arrives during the warm-up is served at the next step', () => {
     const d = driven(5);
     d.sch.push(req(1, '4.7k', false));
-    for (let i = 0; i < 4; i++) d.steps.shift()!(); // stage 1, complete, stage 2, one warm-up call
+    for (let i = 0; i < COMPLETE_STEPS + 3; i++) d.steps.shift()!(); // stage 1, complete, stage 2, one warm-up call
     d.sch.push(req(2, '10k', false));
     d.steps.shift()!();
     expect(summary(d.posted)).toEqual(['1:1', '1:complete', '1:2', '2:1']);
