@@ -8,7 +8,8 @@
 // otherwise take a core from the page while it draws the overlay. When idle, the worker may repeat
 // stage 1 of the last run a few times (`warmCalls`): the engine's kernels are then compiled
 // (JIT) before the next edit instead of during the first dozen edits.
-import { runOverlayStage, runStage2, runStage2Known } from './compute';
+import { knownOf, runOverlayStage, runStage2Known } from './compute';
+import type { KnownFigures } from '../engine/feedback/index';
 import { computeLoopDetail } from './loopDetail';
 import { isFeedbackRequest, isLoopDetailRequest, isShownRequest, type FeedbackRequest, type LoopDetailRequest, type RunRequest, type WorkerMessage, type WorkerRequest } from './protocol';
 import type { AnalysisResult } from '../engine/index';
@@ -98,12 +99,17 @@ export function createScheduler(post: (msg: WorkerMessage) => void, yieldNow: (f
       return;
     }
     later = null;
+    // the complete result is already worked out (it was posted before this stage)
+    feedbackStage(req, knownOf(l.complete()));
+  };
+
+  /** Stage 2 of `run` (in this worker after its complete result, or asked for alone). */
+  const feedbackStage = (run: RunRequest, known?: KnownFigures) => {
     try {
-      // the complete result is already worked out (it was posted before this stage)
-      const [{ feedback, blackman }, ms] = timed(() => runStage2(req, l.complete()));
-      post({ runId: req.runId, stage: 2, feedback, blackman, ms });
+      const [{ feedback, blackman }, ms] = timed(() => runStage2Known(run, known));
+      post({ runId: run.runId, stage: 2, feedback, blackman, ms });
     } catch (e) {
-      post({ runId: req.runId, stage: 'failed', message: `feedback analysis: ${errText(e)}` });
+      post({ runId: run.runId, stage: 'failed', message: `feedback analysis: ${errText(e)}` });
     }
   };
 
@@ -123,12 +129,7 @@ export function createScheduler(post: (msg: WorkerMessage) => void, yieldNow: (f
     } else if (feedbackAsk) {
       const { run, known } = feedbackAsk;
       feedbackAsk = null;
-      try {
-        const [{ feedback, blackman }, ms] = timed(() => runStage2Known(run, known));
-        post({ runId: run.runId, stage: 2, feedback, blackman, ms });
-      } catch (e) {
-        post({ runId: run.runId, stage: 'failed', message: `feedback analysis: ${errText(e)}` });
-      }
+      feedbackStage(run, known);
     } else if (detail) {
       const req = detail;
       detail = null;
