@@ -35,12 +35,24 @@ export function gridTileSvg(scale: number): { svg: string; size: number } {
   return { svg, size };
 }
 
+// The tile of the last zoom: the app asks on every render (pointer moves included), the tile
+// changes only with the zoom.
+let tileOf: { scale: number; image: string; size: number } | null = null;
+
+function tileImage(scale: number): { image: string; size: number } {
+  if (tileOf?.scale !== scale) {
+    const { svg, size } = gridTileSvg(scale);
+    tileOf = { scale, image: `url("data:image/svg+xml,${encodeURIComponent(svg)}")`, size };
+  }
+  return tileOf;
+}
+
 /** CSS background of the sheet for this camera (world (0, 0) on a major cross). */
 export function gridBackground(camera: Camera): CSSProperties {
-  const { svg, size } = gridTileSvg(camera.scale);
+  const { image, size } = tileImage(camera.scale);
   const mod = (v: number) => ((v % size) + size) % size;
   return {
-    backgroundImage: `url("data:image/svg+xml,${encodeURIComponent(svg)}")`,
+    backgroundImage: image,
     backgroundSize: `${size}px ${size}px`,
     backgroundPosition: `${mod(camera.x)}px ${mod(camera.y)}px`,
   };
