@@ -9,7 +9,7 @@ import { computeConnectivity } from '../schematic/connectivity';
 import { labelNet } from '../schematic/kinds';
 import { placedBounds, placedPins, symbolOf, toWorld, type PinSide, type PlacedPin } from '../schematic/symbols';
 import { orientAlign } from '../export/symbolGeometry';
-import { partValueText } from '../canvas/partText';
+import { placedSymbolOf } from '../canvas/drawSymbol';
 
 export interface Rect { x: number; y: number; width: number; height: number }
 
@@ -123,8 +123,9 @@ function textRect(part: PartRecord): Rect[] {
     const x = align === 'start' ? at.x : align === 'end' ? at.x - w : at.x - w / 2;
     out.push({ x, y: at.y - 6, width: w, height: 12 });
   };
-  place(sym.labelAnchor, sym.role === 'device' || sym.role === 'input' || sym.role === 'output' ? part.ref : '');
-  place(sym.valueAnchor, partValueText(part, sym));
+  const shown = placedSymbolOf(part, sym);
+  place(sym.labelAnchor, shown.label ?? '');
+  place(sym.valueAnchor, shown.value ?? '');
   return out;
 }
 
