@@ -1,7 +1,8 @@
 // The feedback analysis may take the poles, zeros and bandwidth that the small-signal analysis has
 // already worked out for the same network (the live view runs that first). This checks the
-// engine's own contract: with those figures the feedback result is the one it computes alone, and
-// figures worked out with other sources off are not used.
+// engine's own contract (common practice: reused figures must not change the answer): with those
+// figures the feedback result is the one it computes alone, and figures worked out with other
+// sources off are not used.
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { analyze } from '../../src/engine/index';
